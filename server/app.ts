@@ -1,0 +1,51 @@
+import express, { type Express } from 'express';
+import helmet from 'helmet';
+import { pinoHttp } from 'pino-http';
+import type { Database } from './db/client';
+import { clientFiles } from './http/client-files';
+import { apiNotFound, errorHandler } from './http/error-handler';
+import type { Logger } from './logger';
+import { competitionsRouter } from './routes/competitions';
+import { healthRouter } from './routes/health';
+
+export interface AppOptions {
+  db: Database;
+  logger: Logger;
+  /** Folder of the built Angular app; when absent only the API is served. */
+  clientDir?: string;
+  /** Largest JSON body accepted, e.g. '1mb'. */
+  jsonLimit?: string;
+}
+
+/** Builds the Express app without listening, so tests run it in-process on port 0. */
+export function createApp({ db, logger, clientDir, jsonLimit = '1mb' }: AppOptions): Express {
+  const app = express();
+  app.disable('x-powered-by');
+  app.set('trust proxy', 'loopback');
+  app.use(
+    helmet({
+      contentSecurityPolicy: {
+        directives: {
+          // Served over plain HTTP on loopback; TLS, when there is any, is added by a proxy in front.
+          upgradeInsecureRequests: null,
+        },
+      },
+    }),
+  );
+  app.use(pinoHttp({ logger, autoLogging: { ignore: (req) => !req.url?.startsWith('/api') } }));
+
+  const api = express.Router();
+  api.use(express.json({ limit: jsonLimit }));
+  api.use((_req, res, next) => {
+    res.setHeader('Cache-Control', 'no-store');
+    next();
+  });
+  api.use('/health', healthRouter(db));
+  api.use('/competitions', competitionsRouter(db));
+  api.use(apiNotFound);
+  app.use('/api', api);
+
+  if (clientDir) app.use(clientFiles(clientDir));
+  app.use(errorHandler);
+  return app;
+}

@@ -1,0 +1,24 @@
+import type { ApiErrorCode, FieldProblem } from '../../shared/api/api-error';
+
+const statusByCode: Record<ApiErrorCode, number> = {
+  bad_request: 400,
+  not_found: 404,
+  payload_too_large: 413,
+  unavailable: 503,
+  internal: 500,
+};
+
+/** An error the API answers with as `{ error: { code, message, details } }`. */
+export class ApiError extends Error {
+  readonly status: number;
+
+  constructor(
+    readonly code: ApiErrorCode,
+    message: string,
+    readonly details: FieldProblem[] = [],
+  ) {
+    super(message);
+    this.name = 'ApiError';
+    this.status = statusByCode[code];
+  }
+}

@@ -1,0 +1,49 @@
+import { sql } from 'drizzle-orm';
+import type { Database } from '../db/client';
+import { competitions } from '../db/schema';
+
+// A race series of our own invention. Fixed ids, so seeding again changes nothing.
+export const demoCompetitions = [
+  {
+    id: '0193a5c0-0000-7000-8000-000000000001',
+    name: 'Frostbarrow Night Sprint',
+    trackType: 'natural',
+    level: 'national',
+    venue: 'Frostbarrow Forest Road',
+    firstRunOn: '2027-01-09',
+    status: 'open',
+  },
+  {
+    id: '0193a5c0-0000-7000-8000-000000000002',
+    name: 'Hollin Ridge Open',
+    trackType: 'natural',
+    level: 'international',
+    venue: 'Hollin Ridge Track',
+    firstRunOn: '2027-01-23',
+    status: 'planned',
+  },
+  {
+    id: '0193a5c0-0000-7000-8000-000000000003',
+    name: 'Glimmerdale Junior Cup',
+    trackType: 'artificial',
+    level: 'junior',
+    venue: 'Glimmerdale Ice Channel',
+    firstRunOn: '2027-02-06',
+    status: 'planned',
+  },
+] as const satisfies readonly (typeof competitions.$inferInsert)[];
+
+/** Seeds the demo scenario; safe to run at every start. Returns how many rows were new. */
+export async function seedDemoScenario(db: Database): Promise<number> {
+  const inserted = await db
+    .insert(competitions)
+    .values([...demoCompetitions])
+    .onConflictDoNothing({ target: competitions.id })
+    .returning({ id: competitions.id });
+  return inserted.length;
+}
+
+export async function countCompetitions(db: Database): Promise<number> {
+  const [row] = await db.select({ n: sql<number>`count(*)::int` }).from(competitions);
+  return row?.n ?? 0;
+}

@@ -1,0 +1,74 @@
+// `npm start`: PostgreSQL up, migrations applied, demo seeded, client built when stale, then serve.
+import path from 'node:path';
+import type { Server } from 'node:http';
+import { createApp } from '../app';
+import { projectRoot, readConfig } from '../config';
+import { connectDatabase } from '../db/client';
+import { applyMigrations } from '../db/migrate';
+import { createLogger } from '../logger';
+import { buildClient, isClientBuildStale } from './client-build';
+import { seedDemoScenario } from './demo-scenario';
+import { startLocalPostgres, type LocalPostgres } from './postgres';
+
+const say = (line: string) => console.log(`[rimelog] ${line}`);
+
+async function main(): Promise<void> {
+  const config = readConfig();
+  const logger = createLogger(process.env['LOG_LEVEL'] ?? 'warn');
+  const cleanups: (() => Promise<void>)[] = [];
+  let stopping = false;
+  const stopAll = async (code: number) => {
+    if (stopping) return;
+    stopping = true;
+    say('Stopping...');
+    for (const cleanup of cleanups.reverse()) {
+      await cleanup().catch((error: unknown) => console.error(error));
+    }
+    process.exit(code);
+  };
+  process.on('SIGINT', () => void stopAll(0));
+  process.on('SIGTERM', () => void stopAll(0));
+
+  try {
+    let databaseUrl = config.databaseUrl;
+    if (databaseUrl) {
+      say('Using the PostgreSQL server named by DATABASE_URL.');
+    } else {
+      const postgres: LocalPostgres = await startLocalPostgres({
+        dataDir: path.join(config.dataDir, 'pg'),
+        port: config.postgresPort,
+        log: say,
+      });
+      cleanups.push(() => postgres.stop());
+      databaseUrl = postgres.url;
+    }
+
+    const database = connectDatabase(databaseUrl);
+    cleanups.push(() => database.close());
+    await applyMigrations(database.db);
+    const seeded = await seedDemoScenario(database.db);
+    say(seeded > 0 ? `Demo scenario seeded (${seeded} competitions).` : 'Demo scenario already present.');
+
+    if (isClientBuildStale(projectRoot, config.clientDir)) {
+      say('Building the app (it is missing or older than its sources)...');
+      await buildClient(projectRoot);
+    }
+
+    const app = createApp({ db: database.db, logger, clientDir: config.clientDir });
+    const server: Server = await new Promise((resolve, reject) => {
+      const listening = app.listen(config.port, config.host, (error?: Error) =>
+        error ? reject(error) : resolve(listening),
+      );
+    });
+    cleanups.push(() => new Promise((resolve) => server.close(() => resolve())));
+
+    say(`Rimelog is running at http://${config.host}:${config.port}/`);
+    say('Demo sign-ins: none yet. Sign-in and roles are not built yet; every screen is open.');
+    say('Press Ctrl-C to stop the server and PostgreSQL.');
+  } catch (error) {
+    console.error(`[rimelog] Could not start: ${error instanceof Error ? error.message : String(error)}`);
+    await stopAll(1);
+  }
+}
+
+void main();

@@ -1,0 +1,29 @@
+import { z } from 'zod';
+
+/** Every error code the API can answer with; the server maps each to one HTTP status. */
+export const apiErrorCodes = {
+  badRequest: 'bad_request',
+  notFound: 'not_found',
+  payloadTooLarge: 'payload_too_large',
+  unavailable: 'unavailable',
+  internal: 'internal',
+} as const;
+
+export type ApiErrorCode = (typeof apiErrorCodes)[keyof typeof apiErrorCodes];
+
+/** One problem with one input field, in words an official can act on. */
+export const fieldProblemSchema = z.object({
+  field: z.string(),
+  message: z.string(),
+});
+export type FieldProblem = z.infer<typeof fieldProblemSchema>;
+
+/** The body of every error answer: `{ error: { code, message, details } }`. */
+export const apiErrorBodySchema = z.object({
+  error: z.object({
+    code: z.enum(Object.values(apiErrorCodes) as [ApiErrorCode, ...ApiErrorCode[]]),
+    message: z.string().min(1),
+    details: z.array(fieldProblemSchema),
+  }),
+});
+export type ApiErrorBody = z.infer<typeof apiErrorBodySchema>;

@@ -1,0 +1,19 @@
+import { ChangeDetectionStrategy, Component, inject } from '@angular/core';
+import { MatButtonModule } from '@angular/material/button';
+import { RouterOutlet } from '@angular/router';
+import { OfflineReadiness } from './core/offline-readiness';
+import { ThemePreference } from './core/theme-preference';
+import { FieldCautions } from './ui/field-cautions';
+import { OfflineBadge } from './ui/offline-badge';
+
+@Component({
+  selector: 'rl-root',
+  changeDetection: ChangeDetectionStrategy.OnPush,
+  imports: [RouterOutlet, MatButtonModule, OfflineBadge, FieldCautions],
+  templateUrl: './app.html',
+  styleUrl: './app.scss',
+})
+export class App {
+  protected readonly offline = inject(OfflineReadiness);
+  protected readonly themes = inject(ThemePreference);
+}

@@ -1,0 +1,37 @@
+import { DatePipe } from '@angular/common';
+import { ChangeDetectionStrategy, Component, computed } from '@angular/core';
+import { MatButtonModule } from '@angular/material/button';
+import { MatTableModule } from '@angular/material/table';
+import { trackTypeLabel, type CompetitionSummary } from '../../../shared/competition/competition';
+import { describeLoadError } from '../core/describe-load-error';
+import { competitionListResource } from './competitions-api';
+
+const statusLabels: Record<CompetitionSummary['status'], string> = {
+  planned: 'Planned',
+  open: 'Open',
+  closed: 'Closed',
+};
+
+/** Home screen: the competitions this server knows, one glove-sized refresh away. */
+@Component({
+  selector: 'rl-competitions-page',
+  changeDetection: ChangeDetectionStrategy.OnPush,
+  imports: [DatePipe, MatButtonModule, MatTableModule],
+  templateUrl: './competitions-page.html',
+  styleUrl: './competitions-page.scss',
+})
+export class CompetitionsPage {
+  protected readonly list = competitionListResource();
+  protected readonly columns = ['name', 'trackType', 'level', 'venue', 'firstRunOn', 'status'];
+  protected readonly competitions = computed(() =>
+    this.list.hasValue() ? this.list.value().competitions : [],
+  );
+  protected readonly errorText = computed(() => {
+    const error = this.list.error();
+    return error ? describeLoadError(error) : undefined;
+  });
+  protected readonly trackTypeLabel = trackTypeLabel;
+  protected statusLabel(competition: CompetitionSummary): string {
+    return statusLabels[competition.status];
+  }
+}
