@@ -1,4 +1,3 @@
-import { sql } from 'drizzle-orm';
 import type { Database } from '../db/client';
 import { competitions } from '../db/schema';
 
@@ -41,9 +40,4 @@ export async function seedDemoScenario(db: Database): Promise<number> {
     .onConflictDoNothing({ target: competitions.id })
     .returning({ id: competitions.id });
   return inserted.length;
-}
-
-export async function countCompetitions(db: Database): Promise<number> {
-  const [row] = await db.select({ n: sql<number>`count(*)::int` }).from(competitions);
-  return row?.n ?? 0;
 }

@@ -1,11 +1,8 @@
 // `npm start`: PostgreSQL up, migrations applied, demo seeded, client built when stale, then serve.
 import path from 'node:path';
-import type { Server } from 'node:http';
-import { createApp } from '../app';
 import { projectRoot, readConfig } from '../config';
-import { connectDatabase } from '../db/client';
-import { applyMigrations } from '../db/migrate';
 import { createLogger } from '../logger';
+import { serve } from '../main';
 import { buildClient, isClientBuildStale } from './client-build';
 import { seedDemoScenario } from './demo-scenario';
 import { startLocalPostgres, type LocalPostgres } from './postgres';
@@ -43,26 +40,17 @@ async function main(): Promise<void> {
       databaseUrl = postgres.url;
     }
 
-    const database = connectDatabase(databaseUrl);
-    cleanups.push(() => database.close());
-    await applyMigrations(database.db);
-    const seeded = await seedDemoScenario(database.db);
-    say(seeded > 0 ? `Demo scenario seeded (${seeded} competitions).` : 'Demo scenario already present.');
-
     if (isClientBuildStale(projectRoot, config.clientDir)) {
       say('Building the app (it is missing or older than its sources)...');
       await buildClient(projectRoot);
     }
 
-    const app = createApp({ db: database.db, logger, clientDir: config.clientDir });
-    const server: Server = await new Promise((resolve, reject) => {
-      const listening = app.listen(config.port, config.host, (error?: Error) =>
-        error ? reject(error) : resolve(listening),
-      );
-    });
-    cleanups.push(() => new Promise((resolve) => server.close(() => resolve())));
+    const running = await serve(config, databaseUrl, logger);
+    cleanups.push(() => running.close());
+    const seeded = await seedDemoScenario(running.database.db);
+    say(seeded > 0 ? `Demo scenario seeded (${seeded} competitions).` : 'Demo scenario already present.');
 
-    say(`Rimelog is running at http://${config.host}:${config.port}/`);
+    say(`Rimelog is running at ${running.url}`);
     say('Demo sign-ins: none yet. Sign-in and roles are not built yet; every screen is open.');
     say('Press Ctrl-C to stop the server and PostgreSQL.');
   } catch (error) {

@@ -1,0 +1,58 @@
+// The server on its own: `DATABASE_URL=postgres://... tsx server/main.ts`.
+// `npm start` (server/ops/start.ts) wraps it with a local PostgreSQL, demo data and the client build.
+import type { Server } from 'node:http';
+import { pathToFileURL } from 'node:url';
+import type { Logger } from 'pino';
+import { createApp } from './app';
+import { readConfig, type ServerConfig } from './config';
+import { connectDatabase } from './db/client';
+import { applyMigrations } from './db/migrate';
+import { createLogger } from './logger';
+
+export interface RunningRimelog {
+  url: string;
+  database: ReturnType<typeof connectDatabase>;
+  /** Stops listening, then closes the database pool. */
+  close(): Promise<void>;
+}
+
+/** Connects, applies pending migrations and listens; the caller owns the returned handle. */
+export async function serve(config: ServerConfig, databaseUrl: string, logger: Logger): Promise<RunningRimelog> {
+  const database = connectDatabase(databaseUrl);
+  try {
+    await applyMigrations(database.db);
+    const app = createApp({ db: database.db, logger, clientDir: config.clientDir });
+    const server: Server = await new Promise((resolve, reject) => {
+      const listening = app.listen(config.port, config.host, (error?: Error) => (error ? reject(error) : resolve(listening)));
+    });
+    return {
+      url: `http://${config.host}:${config.port}/`,
+      database,
+      async close() {
+        await new Promise<void>((resolve) => server.close(() => resolve()));
+        await database.close();
+      },
+    };
+  } catch (error) {
+    await database.close();
+    throw error;
+  }
+}
+
+async function main(): Promise<void> {
+  const config = readConfig();
+  if (!config.databaseUrl) {
+    console.error('Set DATABASE_URL to your PostgreSQL, or use `npm start`, which runs one for you.');
+    process.exit(1);
+  }
+  const logger = createLogger(process.env['LOG_LEVEL'] ?? 'info');
+  const running = await serve(config, config.databaseUrl, logger);
+  logger.info({ url: running.url }, 'Rimelog is listening');
+  const stop = () => void running.close().then(() => process.exit(0));
+  process.on('SIGINT', stop);
+  process.on('SIGTERM', stop);
+}
+
+if (import.meta.url === pathToFileURL(process.argv[1] ?? '').href) {
+  await main();
+}
