@@ -1,25 +1,13 @@
-import type { Browser, Page } from 'playwright-core';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { launchChromium } from '../support/browser';
-import { startServerWithDemo, type RunningServer } from '../support/running-server';
+import type { Page } from 'playwright-core';
+import { describe, expect, it } from 'vitest';
+import { useServerAndBrowser } from '../support/e2e-fixture';
 
-let server: RunningServer;
-let browser: Browser;
-
-beforeAll(async () => {
-  server = await startServerWithDemo();
-  browser = await launchChromium();
-});
-afterAll(async () => {
-  await browser?.close();
-  await server?.stop();
-  await server?.database.drop();
-});
+const fixture = useServerAndBrowser();
 
 async function openHome(): Promise<Page> {
-  const context = await browser.newContext({ viewport: { width: 412, height: 915 }, serviceWorkers: 'block' });
+  const context = await fixture.browser.newContext({ viewport: { width: 412, height: 915 }, serviceWorkers: 'block' });
   const page = await context.newPage();
-  await page.goto(server.url);
+  await page.goto(fixture.server.url);
   await page.locator('td.mat-column-name').first().waitFor();
   return page;
 }

@@ -1,27 +1,14 @@
-import type { Browser } from 'playwright-core';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import { demoCompetitions } from '../../server/ops/demo-scenario';
-import { launchChromium } from '../support/browser';
-import { startServerWithDemo, type RunningServer } from '../support/running-server';
+import { useServerAndBrowser } from '../support/e2e-fixture';
 
-let server: RunningServer;
-let browser: Browser;
-
-beforeAll(async () => {
-  server = await startServerWithDemo();
-  browser = await launchChromium();
-});
-afterAll(async () => {
-  await browser?.close();
-  await server?.stop();
-  await server?.database.drop();
-});
+const fixture = useServerAndBrowser();
 
 describe('the app shell offline', () => {
   it('when loaded once with the server up, then it reopens with the server gone and no network', async () => {
-    const context = await browser.newContext({ viewport: { width: 412, height: 915 } });
+    const context = await fixture.browser.newContext({ viewport: { width: 412, height: 915 } });
     const page = await context.newPage();
-    await page.goto(server.url);
+    await page.goto(fixture.server.url);
 
     // The demo list comes from PostgreSQL through the API into the Material table.
     await page.locator('td.mat-column-name').first().waitFor();
@@ -39,7 +26,7 @@ describe('the app shell offline', () => {
     });
     expect(controlled).toBe(true);
 
-    await server.stop();
+    await fixture.server.stop();
     await context.setOffline(true);
     const reloaded = await page.reload();
     expect(reloaded?.fromServiceWorker()).toBe(true);
