@@ -43,3 +43,18 @@ export function formatTenths(tenths: number, unit: MeasureUnit, options: { signe
   const sign = tenths < 0 ? '−' : signed && tenths > 0 ? '+' : '';
   return `${sign}${text} ${unitSymbols[unit]}`;
 }
+
+/**
+ * Reads what an official keyed ("-4.9", "−4,9", "+12", "23.0") as tenths. More than one decimal is
+ * refused, so no value between two tenths can ever enter a record.
+ */
+export function parseTenths(text: string, unit: MeasureUnit): number {
+  const normalised = text.trim().replace(/\s+/g, '').replace('−', '-').replace(',', '.');
+  const match = /^([+-]?)(\d{1,5})(?:\.(\d))?$/.exec(normalised);
+  if (!match) {
+    throw new RulesInputError('invalid-input', `"${text}" is not a reading in ${unitSymbols[unit]} with at most one decimal.`);
+  }
+  const [, sign, whole, tenth] = match;
+  const tenths = Number(whole) * 10 + Number(tenth ?? '0');
+  return sign === '-' && tenths !== 0 ? -tenths : tenths;
+}
