@@ -3,6 +3,8 @@ import type { ApiErrorCode, FieldProblem } from '../../shared/api/api-error';
 const statusByCode: Record<ApiErrorCode, number> = {
   bad_request: 400,
   not_found: 404,
+  conflict: 409,
+  rules_refused: 422,
   payload_too_large: 413,
   unavailable: 503,
   internal: 500,

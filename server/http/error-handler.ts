@@ -1,5 +1,6 @@
 import type { ErrorRequestHandler, RequestHandler } from 'express';
 import type { ApiErrorBody } from '../../shared/api/api-error';
+import { RulesInputError } from '../../shared/rules/rules-error';
 import { ApiError } from './api-error';
 
 /** body-parser errors carry a `type`; these are the ones a client can cause and fix. */
@@ -15,6 +16,10 @@ function fromBodyParser(err: unknown): ApiError | undefined {
   }
 }
 
+function fromRulesEngine(err: RulesInputError): ApiError {
+  return new ApiError('rules_refused', err.message, err.details.map((detail) => ({ field: err.code, message: detail })));
+}
+
 export const apiNotFound: RequestHandler = (req, _res, next) => {
   next(new ApiError('not_found', `There is no API route ${req.method} ${req.path}.`));
 };
@@ -24,7 +29,7 @@ export const errorHandler: ErrorRequestHandler = (err: unknown, req, res, next) 
     next(err);
     return;
   }
-  const known = err instanceof ApiError ? err : fromBodyParser(err);
+  const known = err instanceof ApiError ? err : err instanceof RulesInputError ? fromRulesEngine(err) : fromBodyParser(err);
   const apiError =
     known ?? new ApiError('internal', 'Something went wrong on the server. Nothing was saved by this request.');
   if (!known) req.log.error({ err }, 'unhandled error');

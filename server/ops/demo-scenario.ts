@@ -1,4 +1,7 @@
+import { acceptDemoValues } from '../../shared/rules/profile-values';
+import { shippedProfile } from '../../shared/rules/shipped-profiles';
 import type { Database } from '../db/client';
+import { openCompetition } from '../db/open-competition';
 import { competitions } from '../db/schema';
 
 // A race series of our own invention. Fixed ids, so seeding again changes nothing.
@@ -10,7 +13,7 @@ export const demoCompetitions = [
     level: 'national',
     venue: 'Frostbarrow Forest Road',
     firstRunOn: '2027-01-09',
-    status: 'open',
+    status: 'planned',
   },
   {
     id: '0193a5c0-0000-7000-8000-000000000002',
@@ -32,6 +35,10 @@ export const demoCompetitions = [
   },
 ] as const satisfies readonly (typeof competitions.$inferInsert)[];
 
+/** The demo race that is under way: opened with the shipped profile and its labelled demo values. */
+export const demoOpenCompetitionId = demoCompetitions[0].id;
+const demoOpenedAt = new Date('2027-01-09T07:00:00Z');
+
 /** Seeds the demo scenario; safe to run at every start. Returns how many rows were new. */
 export async function seedDemoScenario(db: Database): Promise<number> {
   const inserted = await db
@@ -39,5 +46,9 @@ export async function seedDemoScenario(db: Database): Promise<number> {
     .values([...demoCompetitions])
     .onConflictDoNothing({ target: competitions.id })
     .returning({ id: competitions.id });
+  if (inserted.some(({ id }) => id === demoOpenCompetitionId)) {
+    const { trackType, level } = demoCompetitions[0];
+    await openCompetition(db, demoOpenCompetitionId, acceptDemoValues(shippedProfile(trackType, level)), demoOpenedAt);
+  }
   return inserted.length;
 }

@@ -4,9 +4,14 @@ import {
   competitionListQuerySchema,
   type CompetitionList,
 } from '../../shared/competition/competition';
+import { z } from 'zod';
+import type { CompetitionRulesProfile } from '../../shared/rules/competition-profile';
 import type { Database } from '../db/client';
 import { competitions } from '../db/schema';
+import { ApiError } from '../http/api-error';
 import { parseInput } from '../http/parse-input';
+
+const competitionParamsSchema = z.strictObject({ id: z.uuid('The competition id is not valid.') });
 
 export function competitionsRouter(db: Database): Router {
   const router = Router();
@@ -27,6 +32,20 @@ export function competitionsRouter(db: Database): Router {
       .where(query.trackType ? eq(competitions.trackType, query.trackType) : undefined)
       .orderBy(asc(competitions.firstRunOn), asc(competitions.name));
     const body: CompetitionList = { competitions: rows };
+    res.json(body);
+  });
+
+  router.get('/:id/rules-profile', async (req, res) => {
+    const { id } = parseInput(competitionParamsSchema, req.params, 'params');
+    const [row] = await db
+      .select({ name: competitions.name, profile: competitions.rulesProfile, frozenAt: competitions.rulesProfileFrozenAt })
+      .from(competitions)
+      .where(eq(competitions.id, id));
+    if (!row) throw new ApiError('not_found', 'There is no such competition.');
+    if (!row.profile || !row.frozenAt) {
+      throw new ApiError('conflict', `"${row.name}" has not opened yet: its rules profile is frozen when it opens.`);
+    }
+    const body: CompetitionRulesProfile = { competitionId: id, frozenAt: new Date(row.frozenAt).toISOString(), profile: row.profile };
     res.json(body);
   });
 

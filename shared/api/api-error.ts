@@ -4,6 +4,9 @@ import { z } from 'zod';
 export const apiErrorCodes = {
   badRequest: 'bad_request',
   notFound: 'not_found',
+  conflict: 'conflict',
+  /** Well-formed, but the rules engine refused it (a profile gap, a wrong unit ...). */
+  rulesRefused: 'rules_refused',
   payloadTooLarge: 'payload_too_large',
   unavailable: 'unavailable',
   internal: 'internal',
