@@ -12,3 +12,25 @@ export function expectRulesError(run: () => unknown, code: RulesErrorCode): Rule
   }
   return expect.unreachable(`expected a RulesInputError (${code})`);
 }
+
+/** The RulesInputError a call throws; any other error is a real failure and is rethrown. */
+export function thrownBy(act: () => unknown): RulesInputError {
+  try {
+    act();
+  } catch (error) {
+    if (error instanceof RulesInputError) return error;
+    throw error;
+  }
+  throw new Error('Expected a RulesInputError, but nothing was thrown.');
+}
+
+/** The code of the RulesInputError a call throws, or undefined when it throws nothing. */
+export function errorCodeOf(act: () => unknown): string | undefined {
+  try {
+    act();
+  } catch (error) {
+    if (error instanceof RulesInputError) return error.code;
+    throw error;
+  }
+  return undefined;
+}

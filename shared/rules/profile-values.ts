@@ -86,7 +86,7 @@ export const demoValues: Readonly<Record<string, number>> = {
   'dimensions.overall-height.max': 2500,
 };
 
-const demoSource: ValueSource = { kind: 'demo-value', verified: false, note: 'Invented for the demo race; not a rule value.' };
+const demoSource: ValueSource = { kind: 'demo-value', verified: false, note: 'invented for the demo race' };
 
 /** Fills every gap that has a demo value, labelled as a demo value. Junior weights etc. may remain. */
 export function acceptDemoValues(profile: RulesProfile): RulesProfile {

@@ -6,5 +6,10 @@ export const routes: Routes = [
     title: 'Competitions · Rimelog',
     loadComponent: () => import('./competitions/competitions-page').then((m) => m.CompetitionsPage),
   },
+  {
+    path: 'competitions/:id/rules',
+    title: 'Rules in force · Rimelog',
+    loadComponent: () => import('./rules/rules-page').then((m) => m.RulesPage),
+  },
   { path: '**', redirectTo: '' },
 ];

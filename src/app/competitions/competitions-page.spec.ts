@@ -2,6 +2,7 @@ import { provideHttpClient } from '@angular/common/http';
 import { HttpTestingController, provideHttpClientTesting } from '@angular/common/http/testing';
 import { provideZonelessChangeDetection } from '@angular/core';
 import { TestBed } from '@angular/core/testing';
+import { provideRouter } from '@angular/router';
 import { TestbedHarnessEnvironment } from '@angular/cdk/testing/testbed';
 import { MatButtonHarness } from '@angular/material/button/testing';
 import { MatTableHarness } from '@angular/material/table/testing';
@@ -33,7 +34,7 @@ const twoRaces: CompetitionList = {
 
 async function setUp() {
   TestBed.configureTestingModule({
-    providers: [provideZonelessChangeDetection(), provideHttpClient(), provideHttpClientTesting()],
+    providers: [provideZonelessChangeDetection(), provideHttpClient(), provideHttpClientTesting(), provideRouter([])],
   });
   const fixture = TestBed.createComponent(CompetitionsPage);
   const http = TestBed.inject(HttpTestingController);
@@ -57,6 +58,7 @@ describe('CompetitionsPage', () => {
     expect(rows['trackType']?.text).toEqual(['Natural track', 'Artificial track']);
     expect(rows['firstRunOn']?.text).toEqual(['9 Jan 2027', '6 Feb 2027']);
     expect(rows['status']?.text).toEqual(['Open', 'Planned']);
+    expect(rows['rules']?.text).toEqual(['Rules', 'Not open yet']);
   });
 
   it('when the server cannot be reached, then the official is told so and can refresh', async () => {

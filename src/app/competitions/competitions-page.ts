@@ -2,6 +2,7 @@ import { DatePipe } from '@angular/common';
 import { ChangeDetectionStrategy, Component, computed } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
 import { MatTableModule } from '@angular/material/table';
+import { RouterLink } from '@angular/router';
 import { trackTypeLabel, type CompetitionSummary } from '../../../shared/competition/competition';
 import { describeLoadError } from '../core/describe-load-error';
 import { competitionListResource } from './competitions-api';
@@ -16,13 +17,13 @@ const statusLabels: Record<CompetitionSummary['status'], string> = {
 @Component({
   selector: 'rl-competitions-page',
   changeDetection: ChangeDetectionStrategy.OnPush,
-  imports: [DatePipe, MatButtonModule, MatTableModule],
+  imports: [DatePipe, MatButtonModule, MatTableModule, RouterLink],
   templateUrl: './competitions-page.html',
   styleUrl: './competitions-page.scss',
 })
 export class CompetitionsPage {
   protected readonly list = competitionListResource();
-  protected readonly columns = ['name', 'trackType', 'level', 'venue', 'firstRunOn', 'status'];
+  protected readonly columns = ['name', 'trackType', 'level', 'venue', 'firstRunOn', 'status', 'rules'];
   protected readonly competitions = computed(() =>
     this.list.hasValue() ? this.list.value().competitions : [],
   );
