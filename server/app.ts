@@ -1,12 +1,16 @@
 import express, { type Express } from 'express';
 import helmet from 'helmet';
 import { pinoHttp } from 'pino-http';
+import { apiRoutes } from './api-routes';
+import { createLucia } from './auth/lucia';
+import { originCheck } from './auth/origin-check';
+import { sessionReader } from './auth/request-auth';
+import { createSignInLimits, type SignInLimits } from './auth/sign-in-limits';
 import type { Database } from './db/client';
+import { mountRoutes } from './http/api-route';
 import { clientFiles } from './http/client-files';
 import { apiNotFound, errorHandler } from './http/error-handler';
 import type { Logger } from './logger';
-import { competitionsRouter } from './routes/competitions';
-import { healthRouter } from './routes/health';
 
 export interface AppOptions {
   db: Database;
@@ -15,10 +19,13 @@ export interface AppOptions {
   clientDir?: string;
   /** Largest JSON body accepted, e.g. '1mb'. */
   jsonLimit?: string;
+  /** Failed sign-in counting; one per app, so tests get a fresh one each. */
+  signInLimits?: SignInLimits;
 }
 
 /** Builds the Express app without listening, so tests run it in-process on port 0. */
-export function createApp({ db, logger, clientDir, jsonLimit = '1mb' }: AppOptions): Express {
+export function createApp({ db, logger, clientDir, jsonLimit = '1mb', signInLimits = createSignInLimits() }: AppOptions): Express {
+  const auth = createLucia(db);
   const app = express();
   app.disable('x-powered-by');
   app.set('trust proxy', 'loopback');
@@ -40,8 +47,9 @@ export function createApp({ db, logger, clientDir, jsonLimit = '1mb' }: AppOptio
     res.setHeader('Cache-Control', 'no-store');
     next();
   });
-  api.use('/health', healthRouter(db));
-  api.use('/competitions', competitionsRouter(db));
+  api.use(originCheck);
+  api.use(sessionReader(auth, db));
+  mountRoutes(api, apiRoutes({ db, auth, limits: signInLimits }));
   api.use(apiNotFound);
   app.use('/api', api);
 

@@ -2,10 +2,13 @@ import type { ApiErrorCode, FieldProblem } from '../../shared/api/api-error';
 
 const statusByCode: Record<ApiErrorCode, number> = {
   bad_request: 400,
+  unauthenticated: 401,
+  forbidden: 403,
   not_found: 404,
   conflict: 409,
   rules_refused: 422,
   payload_too_large: 413,
+  too_many_requests: 429,
   unavailable: 503,
   internal: 500,
 };

@@ -3,6 +3,7 @@ import { shippedProfile } from '../../shared/rules/shipped-profiles';
 import type { Database } from '../db/client';
 import { openCompetition } from '../db/open-competition';
 import { competitions } from '../db/schema';
+import { seedDemoUsers } from './demo-users';
 
 // A race series of our own invention. Fixed ids, so seeding again changes nothing.
 export const demoCompetitions = [
@@ -50,5 +51,6 @@ export async function seedDemoScenario(db: Database): Promise<number> {
     const { trackType, level } = demoCompetitions[0];
     await openCompetition(db, demoOpenCompetitionId, acceptDemoValues(shippedProfile(trackType, level)), demoOpenedAt);
   }
+  await seedDemoUsers(db);
   return inserted.length;
 }

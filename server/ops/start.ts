@@ -5,7 +5,12 @@ import { createLogger } from '../logger';
 import { serve } from '../main';
 import { buildClient, isClientBuildStale } from './client-build';
 import { seedDemoScenario } from './demo-scenario';
+import { demoPassword, demoUsers } from './demo-users';
 import { startLocalPostgres, type LocalPostgres } from './postgres';
+import { roleLabels, type RoleAssignment } from '../../shared/auth/roles';
+
+const describeRoles = (roles: readonly RoleAssignment[]) =>
+  roles.map((r) => `${roleLabels[r.role]}${r.area ? ` (${r.area})` : ''}${r.competitionId ? '' : ', all competitions'}`).join(', ');
 
 const say = (line: string) => console.log(`[rimelog] ${line}`);
 
@@ -51,7 +56,8 @@ async function main(): Promise<void> {
     say(seeded > 0 ? `Demo scenario seeded (${seeded} competitions).` : 'Demo scenario already present.');
 
     say(`Rimelog is running at ${running.url}`);
-    say('Demo sign-ins: none yet. Sign-in and roles are not built yet; every screen is open.');
+    say(`Demo sign-ins (password for all: ${demoPassword}):`);
+    for (const user of demoUsers) say(`  ${user.email.padEnd(36)} ${describeRoles(user.roles)}`);
     say('Press Ctrl-C to stop the server and PostgreSQL.');
   } catch (error) {
     console.error(`[rimelog] Could not start: ${error instanceof Error ? error.message : String(error)}`);

@@ -1,4 +1,3 @@
-import { Router } from 'express';
 import { asc, eq } from 'drizzle-orm';
 import {
   competitionListQuerySchema,
@@ -6,17 +5,23 @@ import {
 } from '../../shared/competition/competition';
 import { z } from 'zod';
 import type { CompetitionRulesProfile } from '../../shared/rules/competition-profile';
+import { competitionInPath, competitionRole, publicAccess } from '../auth/access';
 import type { Database } from '../db/client';
 import { competitions } from '../db/schema';
 import { ApiError } from '../http/api-error';
+import type { ApiRoute } from '../http/api-route';
 import { parseInput } from '../http/parse-input';
 
 const competitionParamsSchema = z.strictObject({ id: z.uuid('The competition id is not valid.') });
 
-export function competitionsRouter(db: Database): Router {
-  const router = Router();
-
-  router.get('/', async (req, res) => {
+export function competitionRoutes(db: Database): ApiRoute[] {
+  return [
+    {
+      method: 'get',
+      path: '/competitions',
+      // The list is what the public notice board shows too: names, places and dates only.
+      access: publicAccess,
+      handle: async (req, res) => {
     const query = parseInput(competitionListQuerySchema, req.query, 'query');
     const rows = await db
       .select({
@@ -33,9 +38,13 @@ export function competitionsRouter(db: Database): Router {
       .orderBy(asc(competitions.firstRunOn), asc(competitions.name));
     const body: CompetitionList = { competitions: rows };
     res.json(body);
-  });
-
-  router.get('/:id/rules-profile', async (req, res) => {
+      },
+    },
+    {
+      method: 'get',
+      path: '/competitions/:id/rules-profile',
+      access: competitionRole(['official', 'area-leader', 'technical-delegate', 'organiser'], competitionInPath),
+      handle: async (req, res) => {
     const { id } = parseInput(competitionParamsSchema, req.params, 'params');
     const [row] = await db
       .select({ name: competitions.name, profile: competitions.rulesProfile, frozenAt: competitions.rulesProfileFrozenAt })
@@ -47,7 +56,7 @@ export function competitionsRouter(db: Database): Router {
     }
     const body: CompetitionRulesProfile = { competitionId: id, frozenAt: new Date(row.frozenAt).toISOString(), profile: row.profile };
     res.json(body);
-  });
-
-  return router;
+      },
+    },
+  ];
 }

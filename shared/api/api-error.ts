@@ -3,11 +3,14 @@ import { z } from 'zod';
 /** Every error code the API can answer with; the server maps each to one HTTP status. */
 export const apiErrorCodes = {
   badRequest: 'bad_request',
+  unauthenticated: 'unauthenticated',
+  forbidden: 'forbidden',
   notFound: 'not_found',
   conflict: 'conflict',
   /** Well-formed, but the rules engine refused it (a profile gap, a wrong unit ...). */
   rulesRefused: 'rules_refused',
   payloadTooLarge: 'payload_too_large',
+  tooManyRequests: 'too_many_requests',
   unavailable: 'unavailable',
   internal: 'internal',
 } as const;
