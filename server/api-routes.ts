@@ -1,11 +1,28 @@
 import { authRoutes, type AuthRouteDeps } from './auth/auth-routes';
 import type { ApiRoute } from './http/api-route';
+import { invitationRoutes } from './invitations/invitation-routes';
+import { passwordResetRoutes } from './invitations/password-reset-routes';
+import type { PasswordResetLimits } from './invitations/reset-limits';
+import { mailboxRoutes } from './mail/mailbox-routes';
+import type { Mailer } from './mail/mailer';
 import { competitionRoutes } from './routes/competitions';
 import { healthRoutes } from './routes/health';
 
-export type ApiDeps = AuthRouteDeps;
+export interface ApiDeps extends AuthRouteDeps {
+  mailer: Mailer;
+  /** Base URL of this server as devices reach it, put in e-mailed links. */
+  publicUrl: string;
+  resetLimits: PasswordResetLimits;
+}
 
 /** Every API route, each with the access it declares; the authorisation matrix test walks this list. */
 export function apiRoutes(deps: ApiDeps): ApiRoute[] {
-  return [...healthRoutes(deps.db), ...competitionRoutes(deps.db), ...authRoutes(deps)];
+  return [
+    ...healthRoutes(deps.db),
+    ...competitionRoutes(deps.db),
+    ...authRoutes(deps),
+    ...invitationRoutes(deps),
+    ...passwordResetRoutes(deps),
+    ...mailboxRoutes(deps.db),
+  ];
 }

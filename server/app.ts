@@ -10,7 +10,9 @@ import type { Database } from './db/client';
 import { mountRoutes } from './http/api-route';
 import { clientFiles } from './http/client-files';
 import { apiNotFound, errorHandler } from './http/error-handler';
+import { createPasswordResetLimits, type PasswordResetLimits } from './invitations/reset-limits';
 import type { Logger } from './logger';
+import type { Mailer } from './mail/mailer';
 
 export interface AppOptions {
   db: Database;
@@ -21,10 +23,25 @@ export interface AppOptions {
   jsonLimit?: string;
   /** Failed sign-in counting; one per app, so tests get a fresh one each. */
   signInLimits?: SignInLimits;
+  /** Sends invitations and password resets. */
+  mailer: Mailer;
+  /** Base URL of this server as devices reach it, put in e-mailed links. */
+  publicUrl: string;
+  /** Password reset request counting; one per app, like the sign-in limits. */
+  passwordResetLimits?: PasswordResetLimits;
 }
 
 /** Builds the Express app without listening, so tests run it in-process on port 0. */
-export function createApp({ db, logger, clientDir, jsonLimit = '1mb', signInLimits = createSignInLimits() }: AppOptions): Express {
+export function createApp({
+  db,
+  logger,
+  clientDir,
+  jsonLimit = '1mb',
+  signInLimits = createSignInLimits(),
+  mailer,
+  publicUrl,
+  passwordResetLimits = createPasswordResetLimits(),
+}: AppOptions): Express {
   const auth = createLucia(db);
   const app = express();
   app.disable('x-powered-by');
@@ -49,7 +66,7 @@ export function createApp({ db, logger, clientDir, jsonLimit = '1mb', signInLimi
   });
   api.use(originCheck);
   api.use(sessionReader(auth, db));
-  mountRoutes(api, apiRoutes({ db, auth, limits: signInLimits }));
+  mountRoutes(api, apiRoutes({ db, auth, limits: signInLimits, mailer, publicUrl, resetLimits: passwordResetLimits }));
   api.use(apiNotFound);
   app.use('/api', api);
 

@@ -22,15 +22,39 @@ export interface ServerConfig {
   postgresPort: number;
   dataDir: string;
   clientDir: string;
+  /** Base URL of this server as devices reach it, put in e-mailed links (no trailing slash). */
+  publicUrl: string;
+  /** A real SMTP server to send mail through; when unset the local fake mail server is started. */
+  smtpUrl: string | undefined;
+  /** Port of the local fake mail server on 127.0.0.1. */
+  smtpPort: number;
+  /** The sender of Rimelog's e-mails. */
+  mailFrom: string;
+}
+
+/** A URL setting; its value is never echoed, since SMTP_URL may hold a password. */
+function urlFrom(value: string | undefined, name: string, schemes: readonly string[]): string | undefined {
+  if (value === undefined || value === '') return undefined;
+  const scheme = URL.canParse(value) ? new URL(value).protocol.replace(/:$/, '') : undefined;
+  if (scheme === undefined || !schemes.includes(scheme)) {
+    throw new Error(`${name} must be a full URL starting with ${schemes.map((s) => `${s}://`).join(' or ')}.`);
+  }
+  return value.replace(/\/+$/, '');
 }
 
 export function readConfig(env: NodeJS.ProcessEnv = process.env): ServerConfig {
+  const host = env['HOST'] || '127.0.0.1';
+  const port = portFrom(env['PORT'], 4310, 'PORT');
   return {
-    host: env['HOST'] || '127.0.0.1',
-    port: portFrom(env['PORT'], 4310, 'PORT'),
+    host,
+    port,
     databaseUrl: env['DATABASE_URL'] || undefined,
     postgresPort: portFrom(env['RIMELOG_PG_PORT'], 54329, 'RIMELOG_PG_PORT'),
     dataDir: path.resolve(projectRoot, env['RIMELOG_DATA_DIR'] || '.data'),
     clientDir: path.resolve(projectRoot, env['CLIENT_DIR'] || 'dist/rimelog/browser'),
+    publicUrl: urlFrom(env['PUBLIC_URL'], 'PUBLIC_URL', ['http', 'https']) ?? `http://${host}:${port}`,
+    smtpUrl: urlFrom(env['SMTP_URL'], 'SMTP_URL', ['smtp', 'smtps']),
+    smtpPort: portFrom(env['RIMELOG_SMTP_PORT'], 2525, 'RIMELOG_SMTP_PORT'),
+    mailFrom: env['MAIL_FROM'] || 'Rimelog <no-reply@localhost>',
   };
 }

@@ -8,32 +8,54 @@ import { readConfig, type ServerConfig } from './config';
 import { connectDatabase } from './db/client';
 import { applyMigrations } from './db/migrate';
 import { createLogger } from './logger';
+import { startFakeMailServer, type FakeMailServer } from './mail/fake-mail-server';
+import { fakeServerMailer, smtpUrlMailer, type Mailer } from './mail/mailer';
 
 export interface RunningRimelog {
   url: string;
   database: ReturnType<typeof connectDatabase>;
-  /** Stops listening, then closes the database pool. */
+  /** Where e-mail goes, in words to print. */
+  mailDestination: string;
+  /** Stops listening, sends the mail in flight, stops the fake mail server, closes the database pool. */
   close(): Promise<void>;
 }
 
-/** Connects, applies pending migrations and listens; the caller owns the returned handle. */
+/**
+ * Connects, applies pending migrations, starts the local fake mail server (unless SMTP_URL names a
+ * real one) and listens; the caller owns the returned handle.
+ */
 export async function serve(config: ServerConfig, databaseUrl: string, logger: Logger): Promise<RunningRimelog> {
   const database = connectDatabase(databaseUrl);
+  let fakeMail: FakeMailServer | undefined;
+  let mailer: Mailer | undefined;
+  const closeMail = async () => {
+    await mailer?.close();
+    await fakeMail?.close();
+  };
   try {
     await applyMigrations(database.db);
-    const app = createApp({ db: database.db, logger, clientDir: config.clientDir });
+    if (config.smtpUrl) {
+      mailer = smtpUrlMailer(config.smtpUrl, config.mailFrom);
+    } else {
+      fakeMail = await startFakeMailServer({ db: database.db, port: config.smtpPort, logger });
+      mailer = fakeServerMailer(fakeMail.host, fakeMail.port, config.mailFrom);
+    }
+    const app = createApp({ db: database.db, logger, clientDir: config.clientDir, mailer, publicUrl: config.publicUrl });
     const server: Server = await new Promise((resolve, reject) => {
       const listening = app.listen(config.port, config.host, (error?: Error) => (error ? reject(error) : resolve(listening)));
     });
     return {
       url: `http://${config.host}:${config.port}/`,
       database,
+      mailDestination: mailer.destination,
       async close() {
         await new Promise<void>((resolve) => server.close(() => resolve()));
+        await closeMail();
         await database.close();
       },
     };
   } catch (error) {
+    await closeMail();
     await database.close();
     throw error;
   }
@@ -47,7 +69,7 @@ async function main(): Promise<void> {
   }
   const logger = createLogger(process.env['LOG_LEVEL'] ?? 'info');
   const running = await serve(config, config.databaseUrl, logger);
-  logger.info({ url: running.url }, 'Rimelog is listening');
+  logger.info({ url: running.url, mail: running.mailDestination }, 'Rimelog is listening');
   const stop = () => void running.close().then(() => process.exit(0));
   process.on('SIGINT', stop);
   process.on('SIGTERM', stop);

@@ -56,9 +56,10 @@ async function main(): Promise<void> {
     say(seeded > 0 ? `Demo scenario seeded (${seeded} competitions).` : 'Demo scenario already present.');
 
     say(`Rimelog is running at ${running.url}`);
+    say(`E-mail goes to ${running.mailDestination}.`);
     say(`Demo sign-ins (password for all: ${demoPassword}):`);
     for (const user of demoUsers) say(`  ${user.email.padEnd(36)} ${describeRoles(user.roles)}`);
-    say('Press Ctrl-C to stop the server and PostgreSQL.');
+    say(`Press Ctrl-C to stop the server${config.smtpUrl ? '' : ', the fake mail server'} and PostgreSQL.`);
   } catch (error) {
     console.error(`[rimelog] Could not start: ${error instanceof Error ? error.message : String(error)}`);
     await stopAll(1);

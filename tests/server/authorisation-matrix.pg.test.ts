@@ -3,13 +3,11 @@ import type { Express, Router } from 'express';
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { apiRoutes } from '../../server/api-routes';
-import { createLucia } from '../../server/auth/lucia';
 import { grantRole } from '../../server/auth/role-store';
-import { createSignInLimits } from '../../server/auth/sign-in-limits';
 import { roleAssignments, users } from '../../server/db/schema';
 import { demoCompetitions, demoOpenCompetitionId, seedDemoScenario } from '../../server/ops/demo-scenario';
 import { sameOrigin, signInAs } from '../support/sign-in';
-import { createTestApp } from '../support/test-app';
+import { createTestApp, testApiDeps } from '../support/test-app';
 import { createTestDatabase, type TestDatabase } from '../support/test-database';
 
 // SPEC.md §5, route by route. Every principal calls every route with an empty body; a 400 means the
@@ -32,6 +30,12 @@ const expected: Record<string, Record<Principal, number>> = {
   'POST /auth/pin': signedInAll(400),
   'GET /auth/device-users': signedInAll(200),
   'POST /auth/switch': signedInAll(400),
+  'POST /auth/password-reset': everyone(400),
+  'POST /auth/password-reset/confirm': everyone(400),
+  // An organiser of every competition may invite; without a competition in the body only they pass.
+  'POST /invitations': { nobody: 401, official: 403, 'area-leader': 403, delegate: 403, organiser: 400, 'official-elsewhere': 403 },
+  'POST /invitations/accept': everyone(400),
+  'GET /mailbox': { nobody: 401, official: 403, 'area-leader': 403, delegate: 403, organiser: 200, 'official-elsewhere': 403 },
 };
 
 const emails: Record<Exclude<Principal, 'nobody'>, string> = {
@@ -58,7 +62,7 @@ beforeAll(async () => {
 afterAll(() => database.drop());
 
 function declaredRoutes() {
-  return apiRoutes({ db: database.db, auth: createLucia(database.db), limits: createSignInLimits() });
+  return apiRoutes(testApiDeps(database));
 }
 
 /** Routes as Express actually serves them under /api, read from the router itself. */

@@ -1,9 +1,41 @@
 import type { Express } from 'express';
-import { createApp } from '../../server/app';
+import type { ApiDeps } from '../../server/api-routes';
+import { createApp, type AppOptions } from '../../server/app';
+import { createLucia } from '../../server/auth/lucia';
+import { createSignInLimits } from '../../server/auth/sign-in-limits';
+import { createPasswordResetLimits } from '../../server/invitations/reset-limits';
 import { createLogger } from '../../server/logger';
+import { discardingMailer } from './fake-mail';
 import type { TestDatabase } from './test-database';
 
-/** The real Express app over a test database, logging nothing. */
-export function createTestApp(database: TestDatabase, clientDir?: string): Express {
-  return createApp({ db: database.db, logger: createLogger('silent'), clientDir });
+/** The base URL e-mailed links carry in tests. */
+export const testPublicUrl = 'http://rimelog.test';
+
+export type TestAppOptions = Partial<Omit<AppOptions, 'db' | 'logger' | 'clientDir'>>;
+
+/**
+ * The real Express app over a test database, logging nothing. Mail is discarded unless a mailer is
+ * given (tests/support/fake-mail.ts has one to the real fake mail server).
+ */
+export function createTestApp(database: TestDatabase, clientDir?: string, options: TestAppOptions = {}): Express {
+  return createApp({
+    db: database.db,
+    logger: createLogger('silent'),
+    clientDir,
+    ...options,
+    mailer: options.mailer ?? discardingMailer(),
+    publicUrl: options.publicUrl ?? testPublicUrl,
+  });
+}
+
+/** Everything apiRoutes() needs, for tests that read the route list itself. */
+export function testApiDeps(database: TestDatabase): ApiDeps {
+  return {
+    db: database.db,
+    auth: createLucia(database.db),
+    limits: createSignInLimits(),
+    mailer: discardingMailer(),
+    publicUrl: testPublicUrl,
+    resetLimits: createPasswordResetLimits(),
+  };
 }
