@@ -49,7 +49,10 @@ export async function serve(config: ServerConfig, databaseUrl: string, logger: L
       database,
       mailDestination: mailer.destination,
       async close() {
-        await new Promise<void>((resolve) => server.close(() => resolve()));
+        const closed = new Promise<void>((resolve) => server.close(() => resolve()));
+        // Browsers keep connections open; without this, Ctrl-C would wait for them to time out.
+        server.closeAllConnections();
+        await closed;
         await closeMail();
         await database.close();
       },
