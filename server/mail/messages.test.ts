@@ -23,7 +23,7 @@ describe('describeAssignment', () => {
 
 describe('mail texts', () => {
   it('when an invitation is written, then it carries the link on a line of its own and the end of its validity in UTC', () => {
-    const link = 'https://hut.example.org/invitation?token=abc_DEF-123';
+    const link = 'https://hut.example.org/accept-invitation?token=abc_DEF-123';
     const { text } = invitationMail({
       displayName: 'Ada',
       invitedBy: 'Ilse',

@@ -1,6 +1,8 @@
 import {
   type ApplicationConfig,
+  inject,
   isDevMode,
+  provideAppInitializer,
   provideBrowserGlobalErrorListeners,
   provideZonelessChangeDetection,
 } from '@angular/core';
@@ -9,6 +11,7 @@ import { provideRouter, withComponentInputBinding } from '@angular/router';
 import { provideServiceWorker } from '@angular/service-worker';
 import { bypassServiceWorkerForApi } from './core/api-bypass';
 import { routes } from './app.routes';
+import { AuthStore } from './auth/auth-store';
 
 export const appConfig: ApplicationConfig = {
   providers: [
@@ -16,6 +19,8 @@ export const appConfig: ApplicationConfig = {
     provideZonelessChangeDetection(),
     provideRouter(routes, withComponentInputBinding()),
     provideHttpClient(withFetch(), withInterceptors([bypassServiceWorkerForApi])),
+    // Starts from the cached official at once and asks the server in the background: never waits for a network.
+    provideAppInitializer(() => inject(AuthStore).start()),
     provideServiceWorker('ngsw-worker.js', {
       enabled: !isDevMode(),
       registrationStrategy: 'registerWhenStable:30000',

@@ -1,5 +1,7 @@
 import type { Routes } from '@angular/router';
+import { competitionRoleGuard, organiserGuard, signedInGuard } from './auth/auth-guards';
 
+// Every page is loaded lazily, so the first screen stays small.
 export const routes: Routes = [
   {
     path: '',
@@ -9,7 +11,51 @@ export const routes: Routes = [
   {
     path: 'competitions/:id/rules',
     title: 'Rules in force · Rimelog',
+    canActivate: [competitionRoleGuard],
     loadComponent: () => import('./rules/rules-page').then((m) => m.RulesPage),
+  },
+  {
+    path: 'sign-in',
+    title: 'Sign in · Rimelog',
+    loadComponent: () => import('./auth/sign-in-page').then((m) => m.SignInPage),
+  },
+  {
+    path: 'switch-official',
+    title: 'Who is using this device · Rimelog',
+    canActivate: [signedInGuard],
+    loadComponent: () => import('./auth/switch-official-page').then((m) => m.SwitchOfficialPage),
+  },
+  {
+    path: 'set-pin',
+    title: 'Set my PIN · Rimelog',
+    canActivate: [signedInGuard],
+    loadComponent: () => import('./auth/set-pin-page').then((m) => m.SetPinPage),
+  },
+  {
+    path: 'accept-invitation',
+    title: 'Accept the invitation · Rimelog',
+    loadComponent: () => import('./auth/accept-invitation-page').then((m) => m.AcceptInvitationPage),
+  },
+  {
+    path: 'forgot-password',
+    title: 'Forgot your password · Rimelog',
+    loadComponent: () => import('./auth/forgot-password-page').then((m) => m.ForgotPasswordPage),
+  },
+  {
+    path: 'reset-password',
+    title: 'Choose a new password · Rimelog',
+    loadComponent: () => import('./auth/reset-password-page').then((m) => m.ResetPasswordPage),
+  },
+  {
+    path: 'mailbox',
+    title: 'Mailbox · Rimelog',
+    canActivate: [organiserGuard],
+    loadComponent: () => import('./mail/mailbox-page').then((m) => m.MailboxPage),
+  },
+  {
+    path: 'not-allowed',
+    title: 'Not for your role · Rimelog',
+    loadComponent: () => import('./auth/not-allowed-page').then((m) => m.NotAllowedPage),
   },
   { path: '**', redirectTo: '' },
 ];

@@ -1,6 +1,8 @@
 import { ChangeDetectionStrategy, Component, inject } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
 import { RouterOutlet } from '@angular/router';
+import { AuthNotices } from './auth/auth-notices';
+import { UserBar } from './auth/user-bar';
 import { OfflineReadiness } from './core/offline-readiness';
 import { ThemePreference } from './core/theme-preference';
 import { FieldCautions } from './ui/field-cautions';
@@ -9,7 +11,7 @@ import { OfflineBadge } from './ui/offline-badge';
 @Component({
   selector: 'rl-root',
   changeDetection: ChangeDetectionStrategy.OnPush,
-  imports: [RouterOutlet, MatButtonModule, OfflineBadge, FieldCautions],
+  imports: [RouterOutlet, MatButtonModule, OfflineBadge, FieldCautions, UserBar, AuthNotices],
   templateUrl: './app.html',
   styleUrl: './app.scss',
 })

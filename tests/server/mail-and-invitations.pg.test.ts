@@ -54,7 +54,7 @@ const errorOf = (body: unknown) => apiErrorBodySchema.parse(body).error;
 async function invitedToken(email: string, assignment: RoleAssignment = startOfficial): Promise<string> {
   await invite(organiser, { email, displayName: 'Someone New', assignment }).expect(201);
   const [message] = await mail.messagesTo(email);
-  return tokenFromLink(message!.text, testPublicUrl, '/invitation');
+  return tokenFromLink(message!.text, testPublicUrl, '/accept-invitation');
 }
 
 describe('inviting someone new', () => {
@@ -72,7 +72,7 @@ describe('inviting someone new', () => {
     expect(stored[0]!.text).toContain('Hello Ada Quill,');
     expect(stored[0]!.text).toContain('Ilse Marrow has invited you');
     expect(stored[0]!.text).toContain(`Official at the start of ${openRace.name}`);
-    const token = tokenFromLink(stored[0]!.text, testPublicUrl, '/invitation');
+    const token = tokenFromLink(stored[0]!.text, testPublicUrl, '/accept-invitation');
     expect(JSON.stringify(response.body)).not.toContain(token);
 
     // Only the SHA-256 of the token is kept.
@@ -98,7 +98,7 @@ describe('inviting someone new', () => {
     const { messages } = mailboxSchema.parse(response.body);
     expect(messages[0]!.to).toEqual(['second.reader@example.org']);
     expect(messages[1]!.to).toEqual(['first.reader@example.org']);
-    expect(messages[0]!.text).toContain(`${testPublicUrl}/invitation?token=`);
+    expect(messages[0]!.text).toContain(`${testPublicUrl}/accept-invitation?token=`);
     const times = messages.map((m) => Date.parse(m.receivedAt));
     expect(times).toEqual([...times].sort((a, b) => b - a));
   });
@@ -238,7 +238,7 @@ describe('inviting someone who already has an account', () => {
     const first = await invitedToken(email);
     const leader: RoleAssignment = { role: 'area-leader', competitionId: otherRace.id, area: 'finish' };
     await invite(organiser, { email, displayName: 'Two', assignment: leader }).expect(201);
-    const second = tokenFromLink((await mail.messagesTo(email))[0]!.text, testPublicUrl, '/invitation');
+    const second = tokenFromLink((await mail.messagesTo(email))[0]!.text, testPublicUrl, '/accept-invitation');
     await accept(first, 'the first password chosen').expect(201);
     const response = await accept(second, 'a second password tried').expect(409);
     expect(errorOf(response.body).message).toMatch(/already an account.*role of this invitation is now added/);

@@ -40,7 +40,7 @@ export async function startTestMail(database: TestDatabase): Promise<TestMail> {
   };
 }
 
-/** The one-time token of the first link to `path` (e.g. "/invitation") in a mail's text. */
+/** The one-time token of the first link to `path` (e.g. "/accept-invitation") in a mail's text. */
 export function tokenFromLink(text: string, publicUrl: string, path: string): string {
   const match = new RegExp(`${publicUrl.replace(/[.]/g, '\\.')}${path}\\?token=([A-Za-z0-9_-]+)`).exec(text);
   if (!match) throw new Error(`No ${path} link in the mail:\n${text}`);
