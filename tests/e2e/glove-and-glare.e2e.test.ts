@@ -1,5 +1,6 @@
 import type { Page } from 'playwright-core';
 import { describe, expect, it } from 'vitest';
+import { demoPassword } from '../../server/ops/demo-users';
 import { useServerAndBrowser } from '../support/e2e-fixture';
 
 const fixture = useServerAndBrowser();
@@ -20,13 +21,40 @@ interface Box {
   height: number;
 }
 
+/** Every button, and every link drawn as a button, that is on the screen. */
 async function buttonBoxes(page: Page): Promise<Box[]> {
-  return page.locator('button').evaluateAll((buttons) =>
-    buttons.map((b) => {
-      const r = b.getBoundingClientRect();
-      return { label: b.textContent?.trim() ?? '', x: r.x, y: r.y, width: r.width, height: r.height };
-    }),
+  return page.locator('button, a.mat-mdc-button-base').evaluateAll((buttons) =>
+    buttons
+      .map((b) => {
+        const r = b.getBoundingClientRect();
+        return { label: b.textContent?.trim().replace(/\s+/g, ' ') ?? '', x: r.x, y: r.y, width: r.width, height: r.height };
+      })
+      .filter((box) => box.width > 0 && box.height > 0),
   );
+}
+
+function expectGloveSized(boxes: Box[]): void {
+  for (const box of boxes) {
+    expect(box.height, `${box.label} height`).toBeGreaterThanOrEqual(64);
+    expect(box.width, `${box.label} width`).toBeGreaterThanOrEqual(64);
+  }
+  for (let i = 0; i < boxes.length; i++) {
+    for (let j = i + 1; j < boxes.length; j++) {
+      expect(gapBetween(boxes[i]!, boxes[j]!), `${boxes[i]!.label} to ${boxes[j]!.label}`).toBeGreaterThanOrEqual(12);
+    }
+  }
+}
+
+async function signedInPage(email: string): Promise<Page> {
+  const context = await fixture.browser.newContext({ viewport: { width: 412, height: 915 }, serviceWorkers: 'block' });
+  const page = await context.newPage();
+  await page.goto(`${fixture.server.url}/sign-in`);
+  await page.locator('input[name=email]').fill(email);
+  await page.locator('input[name=password]').fill(demoPassword);
+  await page.getByRole('button', { name: 'Sign in' }).click();
+  await page.waitForURL((url) => url.pathname === '/');
+  await page.locator('td.mat-column-name').first().waitFor();
+  return page;
 }
 
 /** Smallest distance between the edges of two boxes (0 when they touch or overlap). */
@@ -72,17 +100,39 @@ describe('glove-first targets (WCAG 2.2 SC 2.5.5: at least 44 x 44 CSS px; ours:
   it('when the home screen shows, then every button is at least 64 px tall and 12 px from the next', async () => {
     const page = await openHome();
     const boxes = await buttonBoxes(page);
-    expect(boxes.map((b) => b.label)).toEqual(['Dark screen', 'Refresh list']);
-    for (const box of boxes) {
-      expect(box.height, `${box.label} height`).toBeGreaterThanOrEqual(64);
-      expect(box.width, `${box.label} width`).toBeGreaterThanOrEqual(64);
-    }
-    for (let i = 0; i < boxes.length; i++) {
-      for (let j = i + 1; j < boxes.length; j++) {
-        expect(gapBetween(boxes[i]!, boxes[j]!), `${boxes[i]!.label} to ${boxes[j]!.label}`).toBeGreaterThanOrEqual(12);
-      }
-    }
+    expect(boxes.map((b) => b.label)).toEqual(['Dark screen', 'Sign in', 'Refresh list', 'Rules']);
+    expectGloveSized(boxes);
     await page.context().close();
+  });
+
+  it.each([
+    ['/', 'Competitions'],
+    ['/competitions/0193a5c0-0000-7000-8000-000000000001/rules', 'Rules in force'],
+    ['/switch-official', 'Who is using this device?'],
+    ['/set-pin', 'Choose your PIN'],
+  ])('when a signed-in official opens %s, then every button on it is glove-sized and apart', async (path, heading) => {
+    const page = await signedInPage('start-official@frostbarrow.test');
+    await page.goto(`${fixture.server.url}${path}`);
+    await page.getByRole('heading', { name: heading }).first().waitFor();
+    const boxes = await buttonBoxes(page);
+    expect(boxes.length).toBeGreaterThan(2);
+    expectGloveSized(boxes);
+    await page.context().close();
+  });
+
+  it('when the sign-in screen shows, then its fields and button are glove-sized and its text reaches 7:1', async () => {
+    const context = await fixture.browser.newContext({ viewport: { width: 412, height: 915 }, serviceWorkers: 'block' });
+    const page = await context.newPage();
+    await page.goto(`${fixture.server.url}/sign-in`);
+    await page.locator('input[name=email]').waitFor();
+    expectGloveSized(await buttonBoxes(page));
+    // The whole field is the touch target: tapping anywhere in it focuses the input.
+    const field = await page.locator('.mat-mdc-text-field-wrapper').first().boundingBox();
+    expect(field!.height).toBeGreaterThanOrEqual(56);
+    for (const selector of ['h1', 'mat-label', 'button.primary-action .mdc-button__label']) {
+      expect(await contrastOf(page, selector), selector).toBeGreaterThanOrEqual(7);
+    }
+    await context.close();
   });
 });
 
