@@ -1,31 +1,23 @@
-import { provideHttpClient } from '@angular/common/http';
-import { provideHttpClientTesting } from '@angular/common/http/testing';
-import { Component, provideZonelessChangeDetection } from '@angular/core';
 import { TestBed } from '@angular/core/testing';
-import { Router, provideRouter } from '@angular/router';
+import { Router } from '@angular/router';
+import { appTestProviders, blankRoutes, BlankPage } from '../testing/app-test-providers';
 import { competitionRoleGuard, organiserGuard, signedInGuard } from './auth-guards';
 import { AuthStore } from './auth-store';
 import { firstOfficial, organiser, otherRaceId, raceId } from './testing/auth-fixtures';
 
-@Component({ template: '' })
-class Blank {}
-
 function setUp() {
   localStorage.clear();
   TestBed.configureTestingModule({
-    providers: [
-      provideZonelessChangeDetection(),
-      provideHttpClient(),
-      provideHttpClientTesting(),
-      provideRouter([
-        { path: '', component: Blank },
-        { path: 'sign-in', component: Blank },
-        { path: 'not-allowed', component: Blank },
-        { path: 'switch-official', component: Blank, canActivate: [signedInGuard] },
-        { path: 'mailbox', component: Blank, canActivate: [organiserGuard] },
-        { path: 'competitions/:id/rules', component: Blank, canActivate: [competitionRoleGuard] },
-      ]),
-    ],
+    providers: appTestProviders(
+      blankRoutes(
+        '',
+        'sign-in',
+        'not-allowed',
+        { path: 'switch-official', component: BlankPage, canActivate: [signedInGuard] },
+        { path: 'mailbox', component: BlankPage, canActivate: [organiserGuard] },
+        { path: 'competitions/:id/rules', component: BlankPage, canActivate: [competitionRoleGuard] },
+      ),
+    ),
   });
   const router = TestBed.inject(Router);
   const visit = async (url: string) => {

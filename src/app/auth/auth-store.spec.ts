@@ -1,28 +1,16 @@
-import { provideHttpClient } from '@angular/common/http';
-import { HttpTestingController, provideHttpClientTesting } from '@angular/common/http/testing';
-import { Component, provideZonelessChangeDetection } from '@angular/core';
+import { HttpTestingController } from '@angular/common/http/testing';
 import { TestBed } from '@angular/core/testing';
-import { Router, provideRouter } from '@angular/router';
+import { Router } from '@angular/router';
+import { appTestProviders, blankRoutes } from '../testing/app-test-providers';
 import { AuthStore } from './auth-store';
 import { ServerReachability } from './server-reachability';
 import { apiError, firstOfficial, meFor, organiser, otherRaceId, raceId, secondOfficial, startOfficial } from './testing/auth-fixtures';
-
-@Component({ template: '' })
-class Blank {}
 
 /** A fresh start of the app: new services over whatever this device's storage holds. */
 function startApp() {
   TestBed.resetTestingModule();
   TestBed.configureTestingModule({
-    providers: [
-      provideZonelessChangeDetection(),
-      provideHttpClient(),
-      provideHttpClientTesting(),
-      provideRouter([
-        { path: '', component: Blank },
-        { path: 'sign-in', component: Blank },
-      ]),
-    ],
+    providers: appTestProviders(blankRoutes('', 'sign-in')),
   });
   return {
     store: TestBed.inject(AuthStore),

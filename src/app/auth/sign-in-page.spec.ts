@@ -1,16 +1,12 @@
-import { provideHttpClient } from '@angular/common/http';
-import { HttpTestingController, provideHttpClientTesting } from '@angular/common/http/testing';
-import { Component, provideZonelessChangeDetection } from '@angular/core';
+import { HttpTestingController } from '@angular/common/http/testing';
 import { TestBed } from '@angular/core/testing';
-import { Router, provideRouter } from '@angular/router';
+import { Router } from '@angular/router';
 import { TestbedHarnessEnvironment } from '@angular/cdk/testing/testbed';
 import { MatInputHarness } from '@angular/material/input/testing';
+import { appTestProviders, blankRoutes } from '../testing/app-test-providers';
 import { AuthStore } from './auth-store';
 import { SignInPage } from './sign-in-page';
 import { apiError, firstOfficial } from './testing/auth-fixtures';
-
-@Component({ template: '' })
-class Blank {}
 
 /** Waits until the page shows an element: a request's answer reaches the page a few promises later. */
 function appears(element: HTMLElement, selector: string): Promise<Element> {
@@ -24,15 +20,7 @@ function appears(element: HTMLElement, selector: string): Promise<Element> {
 async function setUp(returnUrl?: string) {
   localStorage.clear();
   TestBed.configureTestingModule({
-    providers: [
-      provideZonelessChangeDetection(),
-      provideHttpClient(),
-      provideHttpClientTesting(),
-      provideRouter([
-        { path: '', component: Blank },
-        { path: 'competitions/:id/rules', component: Blank },
-      ]),
-    ],
+    providers: appTestProviders(blankRoutes('', 'competitions/:id/rules')),
   });
   const fixture = TestBed.createComponent(SignInPage);
   if (returnUrl) fixture.componentRef.setInput('returnUrl', returnUrl);

@@ -1,8 +1,7 @@
-import { provideHttpClient } from '@angular/common/http';
-import { HttpTestingController, provideHttpClientTesting } from '@angular/common/http/testing';
-import { Component, provideZonelessChangeDetection } from '@angular/core';
+import { HttpTestingController } from '@angular/common/http/testing';
 import { TestBed } from '@angular/core/testing';
-import { Router, provideRouter } from '@angular/router';
+import { Router } from '@angular/router';
+import { appTestProviders, blankRoutes } from '../testing/app-test-providers';
 import { AuthStore } from './auth-store';
 import { DevicePins, pinLockMs } from './device-pins';
 import { OfficialSwitch } from './official-switch';
@@ -11,9 +10,6 @@ import { ServerReachability } from './server-reachability';
 import { SwitchOfficialPage } from './switch-official-page';
 import { apiError, firstOfficial, secondOfficial } from './testing/auth-fixtures';
 
-@Component({ template: '' })
-class Blank {}
-
 const secondsPin = '2468';
 // One scrypt check takes a fifth of a second or more; five wrong PINs and a right one need their time.
 const slow = 30_000;
@@ -21,15 +17,7 @@ const slow = 30_000;
 async function setUp({ offline }: { offline: boolean }) {
   localStorage.clear();
   TestBed.configureTestingModule({
-    providers: [
-      provideZonelessChangeDetection(),
-      provideHttpClient(),
-      provideHttpClientTesting(),
-      provideRouter([
-        { path: '', component: Blank },
-        { path: 'switch-official', component: Blank },
-      ]),
-    ],
+    providers: appTestProviders(blankRoutes('', 'switch-official')),
   });
   const store = TestBed.inject(AuthStore);
   const router = TestBed.inject(Router);
