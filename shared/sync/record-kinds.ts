@@ -1,0 +1,52 @@
+import { z } from 'zod';
+import { measurementSchema } from '../rules/measurement';
+
+/**
+ * What officials record, and how each kind changes. Append-only kinds are never edited: a correction is
+ * a new record naming the one it supersedes, with a reason. Editable kinds merge field by field.
+ */
+const isoTime = z.iso.datetime({ offset: true });
+const correction = { supersedes: z.uuid().nullable().default(null), reason: z.string().max(500).nullable().default(null) };
+
+export const recordFieldSchemas = {
+  'control-reading': z.strictObject({
+    reading: measurementSchema,
+    takenAt: isoTime,
+    instrumentId: z.string().min(1).max(64),
+    ice: measurementSchema.nullable().default(null),
+    air: measurementSchema.nullable().default(null),
+    ...correction,
+  }),
+  'start-check': z.strictObject({
+    run: z.number().int().min(1).max(20),
+    bib: z.number().int().min(1).max(9999),
+    status: z.enum(['in-progress', 'cleared', 'referred', 'violation', 'withdrawn']),
+    beganAt: isoTime,
+    note: z.string().max(2000).default(''),
+  }),
+  measurement: z.strictObject({
+    checkId: z.uuid(),
+    what: z.string().min(1).max(80),
+    value: measurementSchema,
+    takenAt: isoTime,
+    instrumentId: z.string().min(1).max(64).nullable().default(null),
+    ...correction,
+  }),
+  violation: z.strictObject({
+    checkId: z.uuid(),
+    rule: z.string().min(1).max(200),
+    measured: z.string().max(200),
+    note: z.string().max(2000).default(''),
+    decision: z.enum(['pending', 'upheld', 'dismissed']).default('pending'),
+  }),
+} as const;
+
+export type RecordKind = keyof typeof recordFieldSchemas;
+export const recordKinds = Object.keys(recordFieldSchemas) as RecordKind[];
+export const appendOnlyKinds: ReadonlySet<RecordKind> = new Set(['control-reading', 'measurement']);
+
+/** Records that must be unique: a second one is kept, but as a conflict for the area leader. */
+export function naturalKey(kind: RecordKind, competitionId: string, fields: Record<string, unknown>): string | null {
+  if (kind === 'start-check') return `start-check|${competitionId}|${String(fields['run'])}|${String(fields['bib'])}`;
+  return null;
+}
