@@ -7,6 +7,7 @@ import { mailboxRoutes } from './mail/mailbox-routes';
 import type { Mailer } from './mail/mailer';
 import { competitionRoutes } from './routes/competitions';
 import { healthRoutes } from './routes/health';
+import { syncRoutes } from './sync/sync-routes';
 
 export interface ApiDeps extends AuthRouteDeps {
   mailer: Mailer;
@@ -24,5 +25,6 @@ export function apiRoutes(deps: ApiDeps): ApiRoute[] {
     ...invitationRoutes(deps),
     ...passwordResetRoutes(deps),
     ...mailboxRoutes(deps.db),
+    ...syncRoutes(deps.db),
   ];
 }

@@ -1,4 +1,4 @@
-import { date, index, jsonb, pgEnum, pgTable, primaryKey, text, timestamp, unique, uuid } from 'drizzle-orm/pg-core';
+import { bigint, boolean, date, index, integer, jsonb, pgEnum, pgTable, primaryKey, text, timestamp, unique, uuid } from 'drizzle-orm/pg-core';
 import { areas, roles, type RoleAssignment } from '../../shared/auth/roles';
 import {
   competitionLevels,
@@ -6,6 +6,7 @@ import {
   trackTypes,
 } from '../../shared/competition/competition';
 import type { RulesProfile } from '../../shared/rules/rules-profile';
+import type { ConflictSettlement, ConflictSide, FieldSource } from '../../shared/sync/sync-api';
 
 export const trackType = pgEnum('track_type', trackTypes);
 export const competitionLevel = pgEnum('competition_level', competitionLevels);
@@ -111,4 +112,78 @@ export const fakeMailMessages = pgTable('fake_mail_messages', {
   to: text('to_addresses').array().notNull(),
   subject: text('subject').notNull(),
   text: text('text').notNull(),
+});
+
+// --- Offline sync (server/sync) ---
+
+/** One row, holding the last change number handed out; its row lock keeps the numbers gap-free. */
+export const syncCounter = pgTable('sync_counter', {
+  id: integer('id').primaryKey(),
+  value: bigint('value', { mode: 'number' }).notNull(),
+});
+
+export const syncRecords = pgTable(
+  'sync_records',
+  {
+    id: uuid('id').primaryKey(),
+    kind: text('kind').notNull(),
+    competitionId: uuid('competition_id')
+      .notNull()
+      .references(() => competitions.id, { onDelete: 'cascade' }),
+    area: area('area').notNull(),
+    fields: jsonb('fields').$type<Record<string, ConflictSide['value']>>().notNull(),
+    /** Who last set each field, and with which op: what a conflict shows as "kept". */
+    fieldSources: jsonb('field_sources').$type<Record<string, FieldSource>>().notNull(),
+    createdBy: text('created_by').notNull(),
+    deviceId: uuid('device_id').notNull(),
+    hlc: text('hlc').notNull(),
+    naturalKey: text('natural_key'),
+    deleted: boolean('deleted').notNull().default(false),
+    version: integer('version').notNull(),
+    changeSeq: bigint('change_seq', { mode: 'number' }).notNull(),
+  },
+  (table) => [
+    index('sync_records_change_idx').on(table.changeSeq),
+    index('sync_records_natural_key_idx').on(table.naturalKey),
+    index('sync_records_competition_idx').on(table.competitionId),
+  ],
+);
+
+export const syncConflicts = pgTable(
+  'sync_conflicts',
+  {
+    id: uuid('id').primaryKey(),
+    competitionId: uuid('competition_id')
+      .notNull()
+      .references(() => competitions.id, { onDelete: 'cascade' }),
+    area: area('area').notNull(),
+    kind: text('kind').$type<'field' | 'duplicate-record'>().notNull(),
+    recordId: uuid('record_id').notNull(),
+    field: text('field'),
+    base: jsonb('base').$type<ConflictSide['value']>(),
+    kept: jsonb('kept').$type<ConflictSide>().notNull(),
+    incoming: jsonb('incoming').$type<ConflictSide>().notNull(),
+    status: text('status').$type<'open' | 'settled'>().notNull(),
+    settlement: jsonb('settlement').$type<ConflictSettlement>(),
+    changeSeq: bigint('change_seq', { mode: 'number' }).notNull(),
+  },
+  (table) => [index('sync_conflicts_change_idx').on(table.changeSeq), index('sync_conflicts_record_idx').on(table.recordId)],
+);
+
+/** The stored answer to every op, so a replayed op gets the same answer (SPEC.md §2). */
+export const opReceipts = pgTable('op_receipts', {
+  opId: uuid('op_id').primaryKey(),
+  deviceId: uuid('device_id').notNull(),
+  seq: integer('seq').notNull(),
+  userId: text('user_id').notNull(),
+  status: text('status').$type<'applied' | 'duplicate' | 'rejected' | 'conflict'>().notNull(),
+  reason: text('reason').notNull(),
+  conflictIds: uuid('conflict_ids').array().notNull(),
+  receivedAt: timestamp('received_at', { withTimezone: true }).notNull().defaultNow(),
+});
+
+/** The last op sequence number taken from each device. */
+export const deviceCursors = pgTable('device_cursors', {
+  deviceId: uuid('device_id').primaryKey(),
+  lastSeq: integer('last_seq').notNull(),
 });

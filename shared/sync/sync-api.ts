@@ -71,7 +71,13 @@ export const syncRecordSchema = z.object({
 });
 export type SyncRecord = z.infer<typeof syncRecordSchema>;
 
-const side = z.object({ value: json, userId: z.string(), deviceId: z.string(), opId: z.string().nullable(), hlc: z.string() });
+/** Who set a value, from which device, with which op. */
+export const fieldSourceSchema = z.object({ userId: z.string(), deviceId: z.string(), opId: z.string(), hlc: z.string() });
+export type FieldSource = z.infer<typeof fieldSourceSchema>;
+const side = fieldSourceSchema.extend({ value: json });
+export type ConflictSide = z.infer<typeof side>;
+const settlementSchema = z.object({ value: json, reason: z.string(), userId: z.string(), opId: z.string() });
+export type ConflictSettlement = z.infer<typeof settlementSchema>;
 export const syncConflictSchema = z.object({
   id: z.uuid(),
   competitionId: z.uuid(),
@@ -85,7 +91,7 @@ export const syncConflictSchema = z.object({
   kept: side,
   incoming: side,
   status: z.enum(['open', 'settled']),
-  settlement: z.object({ value: json, reason: z.string(), userId: z.string(), opId: z.string() }).nullable(),
+  settlement: settlementSchema.nullable(),
 });
 export type SyncConflict = z.infer<typeof syncConflictSchema>;
 

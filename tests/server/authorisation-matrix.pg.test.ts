@@ -35,6 +35,8 @@ const expected: Record<string, Record<Principal, number>> = {
   // An organiser of every competition may invite; without a competition in the body only they pass.
   'POST /invitations': { nobody: 401, official: 403, 'area-leader': 403, delegate: 403, organiser: 400, 'official-elsewhere': 403 },
   'POST /invitations/accept': everyone(400),
+  'POST /sync/push': signedInAll(400),
+  'GET /sync/pull': signedInAll(200),
   'GET /mailbox': { nobody: 401, official: 403, 'area-leader': 403, delegate: 403, organiser: 200, 'official-elsewhere': 403 },
 };
 

@@ -1,0 +1,306 @@
+import { and, asc, eq, inArray, sql } from 'drizzle-orm';
+import { v7 as uuidv7 } from 'uuid';
+import type { RoleAssignment } from '../../shared/auth/roles';
+import { appendOnlyKinds, naturalKey, recordFieldSchemas, type RecordKind } from '../../shared/sync/record-kinds';
+import { syncOpSchema, type ConflictSide, type FieldSource, type OpResult, type SyncOp } from '../../shared/sync/sync-api';
+import type { Database } from '../db/client';
+import { deviceCursors, opReceipts, syncConflicts, syncCounter, syncRecords } from '../db/schema';
+import { refuseOp } from './authorise-op';
+import { loadAuthors } from './load-batch-context';
+import { mergeFields } from './merge-fields';
+
+type RecordRow = typeof syncRecords.$inferSelect;
+type ConflictRow = typeof syncConflicts.$inferSelect;
+type Json = ConflictSide['value'];
+type Outcome = Pick<OpResult, 'status' | 'reason' | 'conflictIds'>;
+
+export interface PushSession {
+  userId: string;
+  deviceId: string;
+  roles: RoleAssignment[];
+}
+
+/** PostgreSQL takes at most 65,535 bind parameters per statement; stay well below. */
+const maxParameters = 30_000;
+function chunks<T>(rows: readonly T[], columns: number): T[][] {
+  const size = Math.max(1, Math.floor(maxParameters / columns));
+  const out: T[][] = [];
+  for (let i = 0; i < rows.length; i += size) out.push(rows.slice(i, i + size));
+  return out;
+}
+
+const rejected = (reason: string): Outcome => ({ status: 'rejected', reason, conflictIds: [] });
+
+/**
+ * Applies one pushed batch in one transaction (SPEC.md §1–§7): each device's ops in sequence order,
+ * each op's effect and its receipt together. Throws only for failures of the database itself, which the
+ * route answers with 503 so the device sends the same ops again.
+ */
+export async function pushOps(db: Database, session: PushSession, rawOps: readonly unknown[]): Promise<OpResult[]> {
+  const results: OpResult[] = [];
+  const valid: { index: number; op: SyncOp }[] = [];
+  rawOps.forEach((raw, index) => {
+    const parsed = syncOpSchema.safeParse(raw);
+    if (parsed.success) valid.push({ index, op: parsed.data });
+    else {
+      const opId = typeof raw === 'object' && raw && typeof (raw as { opId?: unknown }).opId === 'string' ? (raw as { opId: string }).opId : null;
+      const problem = parsed.error.issues[0];
+      results.push({ index, opId, ...rejected(`This record is not complete or not readable (${problem?.path.join('.') || 'record'}: ${problem?.message}).`) });
+    }
+  });
+  valid.sort((a, b) => (a.op.deviceId < b.op.deviceId ? -1 : a.op.deviceId > b.op.deviceId ? 1 : a.op.seq - b.op.seq));
+  if (valid.length === 0) return results.sort((a, b) => a.index - b.index);
+
+  await db.transaction(async (tx) => {
+    const batch = new Batch(tx as unknown as Database, session);
+    await batch.load(valid.map((v) => v.op));
+    for (const { index, op } of valid) results.push({ index, opId: op.opId, ...batch.apply(op) });
+    await batch.write();
+  });
+  return results.sort((a, b) => a.index - b.index);
+}
+
+class Batch {
+  private receipts = new Map<string, Outcome>();
+  private cursors = new Map<string, number>();
+  private records = new Map<string, RecordRow>();
+  private byNaturalKey = new Map<string, string>();
+  private conflicts = new Map<string, ConflictRow>();
+  private authors!: Awaited<ReturnType<typeof loadAuthors>>;
+  /** Rows changed by this batch, in the order their change numbers are handed out. */
+  private changedRecords: string[] = [];
+  private changedConflicts: string[] = [];
+  private newRecords = new Set<string>();
+  private newConflicts = new Set<string>();
+  private newReceipts: (typeof opReceipts.$inferInsert)[] = [];
+
+  constructor(
+    private readonly tx: Database,
+    private readonly session: PushSession,
+  ) {}
+
+  async load(ops: SyncOp[]): Promise<void> {
+    const { tx } = this;
+    const opIds = ops.map((op) => op.opId);
+    for (const row of await tx.select().from(opReceipts).where(inArray(opReceipts.opId, opIds))) {
+      this.receipts.set(row.opId, { status: row.status, reason: row.reason, conflictIds: row.conflictIds });
+    }
+    const deviceIds = [...new Set(ops.map((op) => op.deviceId))].sort();
+    await tx.insert(deviceCursors).values(deviceIds.map((deviceId) => ({ deviceId, lastSeq: 0 }))).onConflictDoNothing();
+    const cursorRows = await tx.select().from(deviceCursors).where(inArray(deviceCursors.deviceId, deviceIds)).orderBy(asc(deviceCursors.deviceId)).for('update');
+    for (const row of cursorRows) this.cursors.set(row.deviceId, row.lastSeq);
+
+    const settled = ops.flatMap((op) => (op.settlement ? [op.settlement.conflictId] : []));
+    if (settled.length > 0) {
+      const rows = await tx.select().from(syncConflicts).where(inArray(syncConflicts.id, settled)).orderBy(asc(syncConflicts.id)).for('update');
+      for (const row of rows) this.conflicts.set(row.id, row);
+    }
+    const recordIds = [...new Set([...ops.map((op) => op.recordId), ...[...this.conflicts.values()].map((c) => c.recordId)])].sort();
+    for (const row of await tx.select().from(syncRecords).where(inArray(syncRecords.id, recordIds)).orderBy(asc(syncRecords.id)).for('update')) {
+      this.records.set(row.id, row);
+    }
+    const keys = ops.flatMap((op) => {
+      const key = op.action === 'create' ? naturalKey(op.recordKind as RecordKind, op.competitionId, op.fields) : null;
+      return key ? [key] : [];
+    });
+    if (keys.length > 0) {
+      const rows = await tx
+        .select({ id: syncRecords.id, naturalKey: syncRecords.naturalKey })
+        .from(syncRecords)
+        .where(and(inArray(syncRecords.naturalKey, keys), eq(syncRecords.deleted, false)));
+      for (const row of rows) if (row.naturalKey && !this.byNaturalKey.has(row.naturalKey)) this.byNaturalKey.set(row.naturalKey, row.id);
+    }
+    this.authors = await loadAuthors(tx, ops);
+  }
+
+  apply(op: SyncOp): Outcome {
+    const stored = this.receipts.get(op.opId);
+    if (stored) return stored;
+    const last = this.cursors.get(op.deviceId) ?? 0;
+    if (op.seq > last + 1) {
+      return { status: 'deferred', reason: `Waiting for this device's earlier records (number ${last + 1} has not arrived yet).`, conflictIds: [] };
+    }
+    const outcome =
+      op.seq <= last
+        ? rejected(`This device already sent a different record numbered ${op.seq}; its outbox was probably restored from an old copy.`)
+        : this.decide(op);
+    if (op.seq === last + 1) this.cursors.set(op.deviceId, op.seq);
+    this.receipts.set(op.opId, outcome);
+    this.newReceipts.push({ opId: op.opId, deviceId: op.deviceId, seq: op.seq, userId: op.userId, ...outcome, status: outcome.status as 'applied' });
+    return outcome;
+  }
+
+  private decide(op: SyncOp): Outcome {
+    if (!this.authors.displayNames.has(op.userId)) return rejected('This record names an official this server does not know.');
+    const refusal = refuseOp(op, { ...this.authors, sessionUserId: this.session.userId, sessionDeviceId: this.session.deviceId, sessionRoles: this.session.roles });
+    if (refusal) return rejected(refusal);
+    const source: FieldSource = { userId: op.userId, deviceId: op.deviceId, opId: op.opId, hlc: op.hlc };
+    const existing = this.records.get(op.recordId);
+    switch (op.action) {
+      case 'create':
+        return this.create(op, source, existing);
+      case 'update':
+        return this.update(op, source, existing);
+      case 'delete':
+        return this.remove(op, existing);
+      case 'settle':
+        return this.settle(op, source);
+    }
+  }
+
+  private create(op: SyncOp, source: FieldSource, existing: RecordRow | undefined): Outcome {
+    const kind = op.recordKind as RecordKind;
+    if (existing) return { status: 'duplicate', reason: 'This record was already saved on the server.', conflictIds: [] };
+    const parsed = recordFieldSchemas[kind].safeParse(op.fields);
+    if (!parsed.success) return rejected(`The ${kind.replace('-', ' ')} is not complete: ${parsed.error.issues[0]?.path.join('.')}: ${parsed.error.issues[0]?.message}.`);
+    const fields = parsed.data as Record<string, Json>;
+    const key = naturalKey(kind, op.competitionId, fields);
+    const row: RecordRow = {
+      id: op.recordId,
+      kind,
+      competitionId: op.competitionId,
+      area: op.area,
+      fields,
+      fieldSources: Object.fromEntries(Object.keys(fields).map((f) => [f, source])),
+      createdBy: op.userId,
+      deviceId: op.deviceId,
+      hlc: op.hlc,
+      naturalKey: key,
+      deleted: false,
+      version: 1,
+      changeSeq: 0,
+    };
+    this.records.set(row.id, row);
+    this.newRecords.add(row.id);
+    this.touchRecord(row.id);
+    const twin = key ? this.byNaturalKey.get(key) : undefined;
+    if (!twin) {
+      if (key) this.byNaturalKey.set(key, row.id);
+      return { status: 'applied', reason: 'Saved.', conflictIds: [] };
+    }
+    const first = this.records.get(twin);
+    const conflictId = this.addConflict({
+      competitionId: op.competitionId,
+      area: op.area,
+      kind: 'duplicate-record',
+      recordId: twin,
+      field: null,
+      base: null,
+      kept: { value: twin, userId: first?.createdBy ?? 'unknown', deviceId: first?.deviceId ?? 'unknown', opId: 'unknown', hlc: first?.hlc ?? '' },
+      incoming: { value: row.id, ...source },
+    });
+    return { status: 'conflict', reason: 'Another device recorded this check too; both are kept for the area leader to settle.', conflictIds: [conflictId] };
+  }
+
+  private update(op: SyncOp, source: FieldSource, existing: RecordRow | undefined): Outcome {
+    if (!existing) return rejected('The record this change belongs to has not reached the server.');
+    const kind = existing.kind as RecordKind;
+    if (appendOnlyKinds.has(kind)) return rejected('Readings and measurements are never changed; record a correction instead.');
+    const parsed = recordFieldSchemas[kind].partial().strict().safeParse(op.fields);
+    if (!parsed.success) return rejected(`The change is not valid: ${parsed.error.issues[0]?.path.join('.')}: ${parsed.error.issues[0]?.message}.`);
+    const unknown: FieldSource = { userId: existing.createdBy, deviceId: existing.deviceId, opId: 'unknown', hlc: existing.hlc };
+    const merge = mergeFields(existing.fields, existing.fieldSources, { fields: op.fields, base: op.base }, source, unknown);
+    this.setFields(existing, merge.apply, source);
+    const conflictIds = merge.conflicts.map((c) =>
+      this.addConflict({ competitionId: existing.competitionId, area: existing.area, kind: 'field', recordId: existing.id, field: c.field, base: c.base, kept: c.kept, incoming: c.incoming }),
+    );
+    return conflictIds.length > 0
+      ? { status: 'conflict', reason: `Changed on another device too: ${merge.conflicts.map((c) => c.field).join(', ')}; both values are kept for the area leader.`, conflictIds }
+      : { status: 'applied', reason: 'Saved.', conflictIds: [] };
+  }
+
+  private remove(op: SyncOp, existing: RecordRow | undefined): Outcome {
+    if (!existing) return rejected('The record to remove has not reached the server.');
+    if (!existing.deleted) {
+      existing.deleted = true;
+      existing.version += 1;
+      this.touchRecord(existing.id);
+    }
+    return { status: 'applied', reason: 'Marked as removed; the values are kept.', conflictIds: [] };
+  }
+
+  private settle(op: SyncOp, source: FieldSource): Outcome {
+    const conflict = op.settlement ? this.conflicts.get(op.settlement.conflictId) : undefined;
+    if (!conflict || !op.settlement) return rejected('The clash to settle is not known to the server.');
+    if (conflict.status === 'settled') return rejected('This clash was already settled.');
+    const record = this.records.get(conflict.recordId);
+    if (!record) return rejected('The record of this clash is missing.');
+    const value = conflict.field ? op.fields[conflict.field] : op.fields['keep'];
+    if (value === undefined) return rejected(`Say which value to keep (${conflict.field ?? 'keep'}).`);
+    if (conflict.kind === 'duplicate-record') {
+      const ids = [conflict.kept.value, conflict.incoming.value];
+      if (!ids.includes(value)) return rejected('Keep one of the two records of this clash.');
+      const drop = this.records.get(String(ids.find((id) => id !== value)));
+      if (drop && !drop.deleted) {
+        drop.deleted = true;
+        drop.version += 1;
+        this.touchRecord(drop.id);
+      }
+    } else {
+      const parsed = recordFieldSchemas[record.kind as RecordKind].partial().strict().safeParse({ [conflict.field!]: value });
+      if (!parsed.success) return rejected(`The settled value is not valid: ${parsed.error.issues[0]?.message}.`);
+      this.setFields(record, { [conflict.field!]: value }, source);
+    }
+    conflict.status = 'settled';
+    conflict.settlement = { value, reason: op.settlement.reason, userId: op.userId, opId: op.opId };
+    this.touchConflict(conflict.id);
+    return { status: 'applied', reason: 'Settled.', conflictIds: [conflict.id] };
+  }
+
+  private setFields(record: RecordRow, apply: Record<string, Json>, source: FieldSource): void {
+    if (Object.keys(apply).length === 0) return;
+    record.fields = { ...record.fields, ...apply };
+    record.fieldSources = { ...record.fieldSources, ...Object.fromEntries(Object.keys(apply).map((f) => [f, source])) };
+    record.version += 1;
+    this.touchRecord(record.id);
+  }
+
+  private addConflict(values: Omit<ConflictRow, 'id' | 'status' | 'settlement' | 'changeSeq'>): string {
+    const row: ConflictRow = { id: uuidv7(), status: 'open', settlement: null, changeSeq: 0, ...values };
+    this.conflicts.set(row.id, row);
+    this.newConflicts.add(row.id);
+    this.touchConflict(row.id);
+    return row.id;
+  }
+
+  private touchRecord(id: string): void {
+    if (!this.changedRecords.includes(id)) this.changedRecords.push(id);
+  }
+
+  private touchConflict(id: string): void {
+    if (!this.changedConflicts.includes(id)) this.changedConflicts.push(id);
+  }
+
+  async write(): Promise<void> {
+    const { tx } = this;
+    const changes = this.changedRecords.length + this.changedConflicts.length;
+    if (changes > 0) {
+      // Taking the numbers locks the counter row until commit: a later batch cannot commit a higher
+      // number first, so a pull never skips a change (SPEC.md §8).
+      const [counter] = await tx
+        .update(syncCounter)
+        .set({ value: sql`${syncCounter.value} + ${changes}` })
+        .where(eq(syncCounter.id, 1))
+        .returning({ value: syncCounter.value });
+      let next = counter!.value - changes + 1;
+      for (const id of this.changedRecords) this.records.get(id)!.changeSeq = next++;
+      for (const id of this.changedConflicts) this.conflicts.get(id)!.changeSeq = next++;
+    }
+    const inserted = this.changedRecords.filter((id) => this.newRecords.has(id)).map((id) => this.records.get(id)!);
+    for (const rows of chunks(inserted, 14)) await tx.insert(syncRecords).values(rows);
+    for (const id of this.changedRecords.filter((id) => !this.newRecords.has(id))) {
+      const { fields, fieldSources, deleted, version, changeSeq } = this.records.get(id)!;
+      await tx.update(syncRecords).set({ fields, fieldSources, deleted, version, changeSeq }).where(eq(syncRecords.id, id));
+    }
+    const newConflicts = this.changedConflicts.filter((id) => this.newConflicts.has(id)).map((id) => this.conflicts.get(id)!);
+    for (const rows of chunks(newConflicts, 12)) await tx.insert(syncConflicts).values(rows);
+    for (const id of this.changedConflicts.filter((id) => !this.newConflicts.has(id))) {
+      const { status, settlement, changeSeq } = this.conflicts.get(id)!;
+      await tx.update(syncConflicts).set({ status, settlement, changeSeq }).where(eq(syncConflicts.id, id));
+    }
+    for (const rows of chunks(this.newReceipts, 8)) await tx.insert(opReceipts).values(rows);
+    for (const [deviceId, lastSeq] of this.cursors) {
+      await tx.update(deviceCursors).set({ lastSeq }).where(eq(deviceCursors.deviceId, deviceId));
+    }
+  }
+}
