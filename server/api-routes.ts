@@ -8,12 +8,15 @@ import type { Mailer } from './mail/mailer';
 import { competitionRoutes } from './routes/competitions';
 import { healthRoutes } from './routes/health';
 import { syncRoutes } from './sync/sync-routes';
+import { uploadRoutes, type UploadSettings } from './uploads/upload-routes';
 
 export interface ApiDeps extends AuthRouteDeps {
   mailer: Mailer;
   /** Base URL of this server as devices reach it, put in e-mailed links. */
   publicUrl: string;
   resetLimits: PasswordResetLimits;
+  /** Where photos and certificates are kept; without it the upload routes answer 503. */
+  uploads?: UploadSettings;
 }
 
 /** Every API route, each with the access it declares; the authorisation matrix test walks this list. */
@@ -26,5 +29,6 @@ export function apiRoutes(deps: ApiDeps): ApiRoute[] {
     ...passwordResetRoutes(deps),
     ...mailboxRoutes(deps.db),
     ...syncRoutes(deps.db),
+    ...uploadRoutes(deps.db, deps.uploads),
   ];
 }

@@ -29,6 +29,14 @@ export interface AppOptions {
   publicUrl: string;
   /** Password reset request counting; one per app, like the sign-in limits. */
   passwordResetLimits?: PasswordResetLimits;
+  /**
+   * Folder for evidence photos and calibration certificates (`<RIMELOG_DATA_DIR>/uploads`). There is no
+   * default on purpose: a server without one answers 503 to uploads rather than keep evidence somewhere
+   * temporary.
+   */
+  uploadsDir?: string;
+  /** Largest upload accepted, in bytes; 10 MB unless given. */
+  uploadLimitBytes?: number;
 }
 
 /** Builds the Express app without listening, so tests run it in-process on port 0. */
@@ -41,6 +49,8 @@ export function createApp({
   mailer,
   publicUrl,
   passwordResetLimits = createPasswordResetLimits(),
+  uploadsDir,
+  uploadLimitBytes = 10 * 1024 * 1024,
 }: AppOptions): Express {
   const auth = createLucia(db);
   const app = express();
@@ -66,7 +76,8 @@ export function createApp({
   });
   api.use(originCheck);
   api.use(sessionReader(auth, db));
-  mountRoutes(api, apiRoutes({ db, auth, limits: signInLimits, mailer, publicUrl, resetLimits: passwordResetLimits }));
+  const uploads = uploadsDir === undefined ? undefined : { dir: uploadsDir, limitBytes: uploadLimitBytes };
+  mountRoutes(api, apiRoutes({ db, auth, limits: signInLimits, mailer, publicUrl, resetLimits: passwordResetLimits, uploads }));
   api.use(apiNotFound);
   app.use('/api', api);
 

@@ -40,7 +40,15 @@ export async function serve(config: ServerConfig, databaseUrl: string, logger: L
       fakeMail = await startFakeMailServer({ db: database.db, port: config.smtpPort, logger });
       mailer = fakeServerMailer(fakeMail.host, fakeMail.port, config.mailFrom);
     }
-    const app = createApp({ db: database.db, logger, clientDir: config.clientDir, mailer, publicUrl: config.publicUrl });
+    const app = createApp({
+      db: database.db,
+      logger,
+      clientDir: config.clientDir,
+      mailer,
+      publicUrl: config.publicUrl,
+      uploadsDir: config.uploadsDir,
+      uploadLimitBytes: config.uploadLimitBytes,
+    });
     const server: Server = await new Promise((resolve, reject) => {
       const listening = app.listen(config.port, config.host, (error?: Error) => (error ? reject(error) : resolve(listening)));
     });

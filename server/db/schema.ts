@@ -187,3 +187,14 @@ export const deviceCursors = pgTable('device_cursors', {
   deviceId: uuid('device_id').primaryKey(),
   lastSeq: integer('last_seq').notNull(),
 });
+
+// --- Uploads: evidence photos and calibration certificates (server/uploads) ---
+
+/** One row per stored file, written after the file itself is safely on disk; the file's name is its SHA-256. */
+export const uploads = pgTable('uploads', {
+  sha256: text('sha256').primaryKey(),
+  contentType: text('content_type').notNull(),
+  sizeBytes: integer('size_bytes').notNull(),
+  uploadedBy: text('uploaded_by').notNull(),
+  uploadedAt: timestamp('uploaded_at', { withTimezone: true }).notNull().defaultNow(),
+});

@@ -8,6 +8,7 @@ const statusByCode: Record<ApiErrorCode, number> = {
   conflict: 409,
   rules_refused: 422,
   payload_too_large: 413,
+  unsupported_media_type: 415,
   too_many_requests: 429,
   unavailable: 503,
   internal: 500,

@@ -10,6 +10,8 @@ export const apiErrorCodes = {
   /** Well-formed, but the rules engine refused it (a profile gap, a wrong unit ...). */
   rulesRefused: 'rules_refused',
   payloadTooLarge: 'payload_too_large',
+  /** A file of a kind the server does not keep (uploads take JPEG, PNG, WebP photos and PDFs). */
+  unsupportedMediaType: 'unsupported_media_type',
   tooManyRequests: 'too_many_requests',
   unavailable: 'unavailable',
   internal: 'internal',

@@ -38,7 +38,13 @@ const expected: Record<string, Record<Principal, number>> = {
   'POST /sync/push': signedInAll(400),
   'GET /sync/pull': signedInAll(200),
   'GET /mailbox': { nobody: 401, official: 403, 'area-leader': 403, delegate: 403, organiser: 200, 'official-elsewhere': 403 },
+  // The empty body is JSON, not a photo or PDF (415); nothing was uploaded under the hash (404).
+  'PUT /uploads/:sha256': signedInAll(415),
+  'GET /uploads/:sha256': signedInAll(404),
 };
+
+/** A well-formed SHA-256 that names no stored upload, for the `:sha256` of the upload routes. */
+const unknownSha256 = 'c0ffee'.padEnd(64, '0');
 
 const emails: Record<Exclude<Principal, 'nobody'>, string> = {
   official: 'start-official@frostbarrow.test',
@@ -88,9 +94,12 @@ describe('authorisation matrix', () => {
   const cells = Object.entries(expected).flatMap(([route, statuses]) => principals.map((p) => [route, p, statuses[p]] as const));
   it.each(cells)('%s as %s answers %i', async (route, principal, status) => {
     const [method, pathPattern] = route.split(' ') as [string, string];
-    const path = `/api${pathPattern.replace(':id', demoOpenCompetitionId)}`;
+    const path = `/api${pathPattern.replace(':id', demoOpenCompetitionId).replace(':sha256', unknownSha256)}`;
     const cookie = principal === 'nobody' ? undefined : await signInAs(app, emails[principal]);
-    let call = method === 'GET' ? request(app).get(path) : request(app).post(path).set(sameOrigin).send({});
+    let call =
+      method === 'GET'
+        ? request(app).get(path)
+        : (method === 'PUT' ? request(app).put(path) : request(app).post(path)).set(sameOrigin).send({});
     if (cookie) call = call.set('Cookie', cookie);
     const response = await call;
     expect(response.status, JSON.stringify(response.body)).toBe(status);

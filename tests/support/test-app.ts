@@ -1,4 +1,7 @@
 import type { Express } from 'express';
+import { randomUUID } from 'node:crypto';
+import os from 'node:os';
+import path from 'node:path';
 import type { ApiDeps } from '../../server/api-routes';
 import { createApp, type AppOptions } from '../../server/app';
 import { createLucia } from '../../server/auth/lucia';
@@ -14,8 +17,17 @@ export const testPublicUrl = 'http://rimelog.test';
 export type TestAppOptions = Partial<Omit<AppOptions, 'db' | 'logger' | 'clientDir'>>;
 
 /**
+ * A fresh uploads folder for one test app, under the OS temporary folder. It is only created by the
+ * first stored upload, so apps that store nothing leave nothing behind; a test that uploads removes it.
+ */
+export function temporaryUploadsDir(): string {
+  return path.join(os.tmpdir(), `rimelog-uploads-${randomUUID()}`);
+}
+
+/**
  * The real Express app over a test database, logging nothing. Mail is discarded unless a mailer is
- * given (tests/support/fake-mail.ts has one to the real fake mail server).
+ * given (tests/support/fake-mail.ts has one to the real fake mail server). Uploads go to a temporary
+ * folder of this app's own unless one is given (see temporaryUploadsDir).
  */
 export function createTestApp(database: TestDatabase, clientDir?: string, options: TestAppOptions = {}): Express {
   return createApp({
@@ -23,6 +35,7 @@ export function createTestApp(database: TestDatabase, clientDir?: string, option
     logger: createLogger('silent'),
     clientDir,
     ...options,
+    uploadsDir: options.uploadsDir ?? temporaryUploadsDir(),
     mailer: options.mailer ?? discardingMailer(),
     publicUrl: options.publicUrl ?? testPublicUrl,
   });
