@@ -12,6 +12,8 @@ import { provideServiceWorker } from '@angular/service-worker';
 import { bypassServiceWorkerForApi } from './core/api-bypass';
 import { routes } from './app.routes';
 import { AuthStore } from './auth/auth-store';
+import { AppUpdate } from './core/sync/app-update';
+import { DeviceStore } from './core/sync/device-store';
 
 export const appConfig: ApplicationConfig = {
   providers: [
@@ -21,6 +23,9 @@ export const appConfig: ApplicationConfig = {
     provideHttpClient(withFetch(), withInterceptors([bypassServiceWorkerForApi])),
     // Starts from the cached official at once and asks the server in the background: never waits for a network.
     provideAppInitializer(() => inject(AuthStore).start()),
+    // Opens the records on this device in the background; syncing follows sign-in.
+    provideAppInitializer(() => inject(DeviceStore).start()),
+    provideAppInitializer(() => inject(AppUpdate).start()),
     provideServiceWorker('ngsw-worker.js', {
       enabled: !isDevMode(),
       registrationStrategy: 'registerWhenStable:30000',

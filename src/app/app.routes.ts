@@ -53,6 +53,12 @@ export const routes: Routes = [
     loadComponent: () => import('./mail/mailbox-page').then((m) => m.MailboxPage),
   },
   {
+    path: 'sync',
+    title: 'Sync · Rimelog',
+    canActivate: [signedInGuard],
+    loadComponent: () => import('./sync/sync-page').then((m) => m.SyncPage),
+  },
+  {
     path: 'not-allowed',
     title: 'Not for your role · Rimelog',
     loadComponent: () => import('./auth/not-allowed-page').then((m) => m.NotAllowedPage),

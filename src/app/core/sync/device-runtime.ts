@@ -1,0 +1,38 @@
+import { liveQuery } from 'dexie';
+import { from, retry, type Observable } from 'rxjs';
+import { exportBackup, importBackup } from '../device-store/backup';
+import type { DeviceDb, Rejection } from '../device-store/device-db';
+import { createRecordWriter, type RecordWriter } from '../device-store/record-writer';
+import { createSyncEngine, type SyncEngine } from '../device-store/sync-engine';
+import type { DeviceStoreBackend } from './device-store-backend';
+import { readOutboxSummary, readRejections, type OutboxSummary } from './outbox-summary';
+
+/** Everything that needs Dexie, in one lazily loaded chunk so the first screen does not wait for it. */
+export interface DeviceRuntime {
+  db: DeviceDb;
+  engine: SyncEngine;
+  writer: RecordWriter;
+  outbox$: Observable<OutboxSummary>;
+  rejections$: Observable<Rejection[]>;
+  exportBackup: () => ReturnType<typeof exportBackup>;
+  importBackup: (contents: string) => ReturnType<typeof importBackup>;
+}
+
+export function startDeviceRuntime(db: DeviceDb, backend: DeviceStoreBackend): DeviceRuntime {
+  const now = backend.now;
+  const engine = createSyncEngine({ ...backend.engine, db, transport: backend.transport, now });
+  return {
+    db,
+    engine,
+    writer: createRecordWriter({ db, now, onCommitted: () => engine.nudge() }),
+    outbox$: live(() => readOutboxSummary(db)),
+    rejections$: live(() => readRejections(db)),
+    exportBackup: () => exportBackup(db, { now }),
+    importBackup: (contents) => importBackup(db, contents, { now }),
+  };
+}
+
+/** A Dexie live query as RxJS; a failed read ends a live query, so it starts again after a pause. */
+function live<T>(query: () => Promise<T>): Observable<T> {
+  return from(liveQuery(query)).pipe(retry({ delay: 2_000 }));
+}

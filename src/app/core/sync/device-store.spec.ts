@@ -1,0 +1,79 @@
+// First: Dexie reads the global indexedDB once when it loads (each store still gets its own factory).
+import 'fake-indexeddb/auto';
+import { HttpTestingController } from '@angular/common/http/testing';
+import { TestBed } from '@angular/core/testing';
+import { AuthStore } from '../../auth/auth-store';
+import { firstOfficial, secondOfficial } from '../../auth/testing/auth-fixtures';
+import { RecordRefusedError } from '../device-store/store-errors';
+import { FakeSyncServer } from '../device-store/testing/fake-sync-server';
+import { competitionId, startCheck } from '../device-store/testing/test-device';
+import { appTestProviders, blankRoutes } from '../../testing/app-test-providers';
+import { DeviceStore } from './device-store';
+import { StorageGuard } from './storage-guard';
+import { FakeBrowserStorage, provideTestDeviceStore, startSignedIn, until } from './testing/test-device-store';
+
+function setUp(server = new FakeSyncServer(), storage = new FakeBrowserStorage()) {
+  TestBed.configureTestingModule({
+    providers: [...appTestProviders(blankRoutes('', 'sign-in')), ...provideTestDeviceStore(server, storage)],
+  });
+  return { server, storage };
+}
+
+describe('DeviceStore', () => {
+  beforeEach(() => localStorage.clear());
+
+  it('when an official records, then the record reaches the server by itself, carrying their id and this device id', async () => {
+    const { server } = setUp();
+    const store = await startSignedIn(firstOfficial);
+
+    await store.createRecord('start-check', competitionId, 'start', startCheck(21));
+
+    // No "Sync now": the write itself wakes the sync loop.
+    await until(() => server.received.length === 1, 'the op arrives');
+    expect(server.received[0]).toMatchObject({ userId: 'official-one', deviceId: store.deviceId, seq: 1 });
+  });
+
+  it('when a second official takes over by PIN with no signal, then their records carry their own id', async () => {
+    const { server } = setUp();
+    const store = await startSignedIn(firstOfficial);
+    TestBed.inject(AuthStore).useLocally(secondOfficial, '2468');
+
+    await store.createRecord('start-check', competitionId, 'start', startCheck(22));
+
+    await until(() => server.received.length === 1, 'the op arrives');
+    expect(server.received[0]?.userId).toBe('official-two');
+  });
+
+  it('when the official signs out of this device, then the sync loop stops and nothing can be recorded without a name', async () => {
+    const { server } = setUp();
+    const store = await startSignedIn(firstOfficial);
+    const auth = TestBed.inject(AuthStore);
+
+    const signingOut = auth.signOut();
+    TestBed.inject(HttpTestingController).expectOne('/api/auth/sign-out').flush(null, { status: 204, statusText: 'No Content' });
+    await signingOut;
+
+    await until(() => !store.isRunning(), 'the loop stops');
+    await expect(store.createRecord('start-check', competitionId, 'start', startCheck(23))).rejects.toBeInstanceOf(RecordRefusedError);
+    const calls = server.calls.length;
+    await new Promise((resolve) => setTimeout(resolve, 50));
+    expect(server.calls.length).toBe(calls);
+  });
+
+  it('when the device database is first used, then the browser is asked to keep it once; a later start only asks whether it does', async () => {
+    const { storage } = setUp();
+    storage.grants = false;
+    await startSignedIn(firstOfficial);
+    expect(storage.persistCalls).toBe(1);
+
+    TestBed.resetTestingModule();
+    TestBed.configureTestingModule({
+      providers: [...appTestProviders(blankRoutes('', 'sign-in')), ...provideTestDeviceStore(new FakeSyncServer(), storage)],
+    });
+    TestBed.inject(AuthStore).adoptSession(firstOfficial);
+    const store = TestBed.inject(DeviceStore);
+    store.start();
+    await until(() => store.isRunning() && TestBed.inject(StorageGuard).persistence() === 'may-clear', 'the second start has looked');
+    expect(storage.persistCalls).toBe(1);
+  });
+});

@@ -1,0 +1,154 @@
+// First: Dexie reads the global indexedDB once when it loads (each store still gets its own factory).
+import 'fake-indexeddb/auto';
+import { TestBed } from '@angular/core/testing';
+import { firstOfficial } from '../auth/testing/auth-fixtures';
+import { exportBackup } from '../core/device-store/backup';
+import { createRecordWriter } from '../core/device-store/record-writer';
+import { FakeSyncServer } from '../core/device-store/testing/fake-sync-server';
+import { competitionId, measurement, openTestDevice, otherOfficial, startCheck } from '../core/device-store/testing/test-device';
+import { FileDownload } from '../core/sync/file-download';
+import { FakeBrowserStorage, provideTestDeviceStore, startSignedIn, until } from '../core/sync/testing/test-device-store';
+import { appTestProviders, blankRoutes } from '../testing/app-test-providers';
+import { SyncPage } from './sync-page';
+
+/** Keeps what the page handed to the browser's downloads. */
+class SavedFiles {
+  readonly files: { fileName: string; contents: string }[] = [];
+  save(fileName: string, contents: string): void {
+    this.files.push({ fileName, contents });
+  }
+}
+
+async function setUp({ server = new FakeSyncServer(), storage = new FakeBrowserStorage() } = {}) {
+  localStorage.clear();
+  const saved = new SavedFiles();
+  TestBed.configureTestingModule({
+    providers: [
+      ...appTestProviders(blankRoutes('', 'sync')),
+      ...provideTestDeviceStore(server, storage),
+      { provide: FileDownload, useValue: saved },
+    ],
+  });
+  const store = await startSignedIn(firstOfficial);
+  const fixture = TestBed.createComponent(SyncPage);
+  await fixture.whenStable();
+  const element = fixture.nativeElement as HTMLElement;
+  const text = (selector = ':scope') => {
+    fixture.detectChanges();
+    return element.querySelector(selector)?.textContent?.replace(/\s+/g, ' ').trim() ?? '';
+  };
+  const press = (label: string) => {
+    fixture.detectChanges();
+    const button = [...element.querySelectorAll<HTMLButtonElement>('button')].find((b) => b.textContent?.trim() === label);
+    if (!button) throw new Error(`No button "${label}"`);
+    if (button.disabled) throw new Error(`Button "${label}" is disabled`);
+    button.click();
+  };
+  return { server, storage, store, saved, fixture, element, text, press };
+}
+
+describe('SyncPage', () => {
+  it('when records wait offline and "Sync now" is pressed with the server back, then the engine sends them and the counts empty', async () => {
+    const server = new FakeSyncServer();
+    server.outage = 'unreachable';
+    const { store, text, press, element } = await setUp({ server });
+    await store.createRecord('start-check', competitionId, 'start', startCheck(4));
+    await store.createRecord('start-check', competitionId, 'start', startCheck(5));
+    await store.createRecord('control-reading', competitionId, 'start', {
+      reading: { tenths: -49, unit: 'celsius' },
+      takenAt: '2027-01-14T09:00:00.000Z',
+      instrumentId: 'probe-1',
+    });
+    await until(() => text('[data-kind="control-reading"]') !== '', 'the outbox is counted');
+    expect(text('[data-kind="start-check"]')).toBe('Start checks: 2');
+    expect(text('[data-kind="control-reading"]')).toBe('Control steel readings: 1');
+    expect(text('[data-section="last-error"]')).toContain('cannot be reached');
+
+    server.outage = null;
+    press('Sync now');
+
+    await until(() => text('[data-section="round"]').startsWith('Synced'), 'the round is over');
+    expect(server.received.map((op) => op.recordKind).sort()).toEqual(['control-reading', 'start-check', 'start-check']);
+    expect(text('[data-section="round"]')).toContain('3 changes sent');
+    await until(() => text('[data-fact="waiting"]').includes('Nothing waiting') && element.querySelector('[data-kind]') === null, 'the counts are empty');
+    expect(element.querySelector('[data-section="last-error"]')).toBeNull();
+    // The sync button is the 72 px primary action.
+    expect(element.querySelector('button.primary-action')?.textContent?.trim()).toBe('Sync now');
+  });
+
+  it('when the server refuses a record, then the page shows which record, who made it and why, in words', async () => {
+    const server = new FakeSyncServer();
+    server.refuse = (op) => (op.recordKind === 'start-check' ? 'You are no longer assigned to the start area of this race.' : null);
+    const { store, text } = await setUp({ server });
+    await store.createRecord('start-check', competitionId, 'start', startCheck(7));
+    await store.syncNow();
+
+    await until(() => text('[data-section="refusal"]') !== '', 'the refusal shows');
+    const refusal = text('[data-section="refusal"]');
+    expect(refusal).toContain('Start check (new): run 1, bib 7');
+    expect(refusal).toContain('Why: You are no longer assigned to the start area of this race.');
+    expect(refusal).toContain('by First Official');
+  });
+
+  it('when "Export backup" is pressed, then a file named by this device and the time holds the waiting changes', async () => {
+    const server = new FakeSyncServer();
+    server.outage = 'unreachable';
+    const { store, saved, press, text } = await setUp({ server });
+    await store.createRecord('start-check', competitionId, 'start', startCheck(9));
+    const before = Date.now();
+
+    press('Export backup');
+
+    await until(() => saved.files.length === 1, 'the file is handed over');
+    const { fileName, contents } = saved.files[0]!;
+    const match = /^rimelog-backup-([0-9a-f-]{36})-(\d{8}T\d{6}Z)\.json$/.exec(fileName);
+    expect(match?.[1]).toBe(store.deviceId);
+    const stamp = match![2]!.replace(/^(\d{4})(\d{2})(\d{2})T(\d{2})(\d{2})(\d{2})Z$/, '$1-$2-$3T$4:$5:$6Z');
+    expect(Math.abs(Date.parse(stamp) - before)).toBeLessThan(5_000);
+    const file = JSON.parse(contents) as { deviceId: string; ops: { fields: { bib: number } }[] };
+    expect(file.deviceId).toBe(store.deviceId);
+    expect(file.ops.map((op) => op.fields.bib)).toEqual([9]);
+    await until(() => text('[data-section="backup"]').includes(fileName), 'the page names the file');
+  });
+
+  it('when a backup from another device is imported, then its changes are sent, and a second import changes nothing on the server', async () => {
+    const { server, element, text } = await setUp();
+    const otherDb = await openTestDevice();
+    const other = createRecordWriter({ db: otherDb });
+    await other.createRecord('measurement', competitionId, 'start', measurement(231), otherOfficial);
+    const backup = await exportBackup(otherDb);
+    otherDb.close();
+    const choose = () => {
+      const input = element.querySelector<HTMLInputElement>('input[type="file"]')!;
+      Object.defineProperty(input, 'files', { configurable: true, value: [new File([backup.contents], backup.fileName, { type: 'application/json' })] });
+      input.dispatchEvent(new Event('change'));
+    };
+
+    choose();
+    await until(() => text('[data-section="backup"]').includes('Synced'), 'the import and its sync are over');
+    expect(text('[data-section="backup"]')).toContain('1 change added, 0 already here');
+    expect(server.received.map((op) => op.userId)).toEqual([otherOfficial]);
+
+    const sentBefore = server.received.length;
+    choose();
+    await until(() => server.received.length > sentBefore && text('[data-section="backup"]').includes('Synced'), 'the second import is over');
+    // The same op id again: the server gives its stored answer and keeps one record.
+    expect(server.receipts.size).toBe(1);
+    expect(server.records.size).toBe(1);
+    await until(() => text('[data-fact="waiting"]').includes('Nothing waiting'), 'the outbox is empty again');
+  });
+
+  it('when the browser keeps the records, then the storage says so; when it may clear them, it says to sync often', async () => {
+    const storage = new FakeBrowserStorage();
+    storage.grants = false;
+    const { text, press } = await setUp({ storage });
+    await until(() => text('[data-section="persistence"]').includes('may clear'), 'the refusal to persist shows');
+    expect(text('[data-section="persistence"]')).toContain('sync often');
+    expect(text('[data-section="usage"]')).toBe('12.0 MB of 2.0 GB used (1 %).');
+    expect(storage.persistCalls).toBe(1);
+
+    storage.grants = true;
+    press('Ask the browser to keep the records');
+    await until(() => text('[data-section="persistence"]').includes('kept safe by the browser'), 'the grant shows');
+  });
+});
