@@ -31,6 +31,11 @@ describe('mergeFields (SPEC.md §5)', () => {
     expect(merge.apply).toEqual({ note: 'bridge and steels checked' });
   });
 
+  it("when the device's own earlier op set the field and its next edit carries an older base, then the new value applies (its edits chain)", () => {
+    const merge = mergeFields({ ...current, status: 'referred' }, { ...sources, status: sourceB }, { fields: { status: 'cleared' }, base: { status: 'in-progress' } }, { ...sourceB, opId: 'op-b2' }, sourceA);
+    expect(merge).toEqual({ apply: { status: 'cleared' }, conflicts: [] });
+  });
+
   it('when an edit carries no base for a field that differs, then it is kept as a conflict, never applied blindly', () => {
     const merge = mergeFields(current, sources, { fields: { status: 'cleared' }, base: {} }, sourceB, sourceA);
     expect(merge.conflicts).toHaveLength(1);

@@ -33,7 +33,10 @@ export function mergeFields(
     const now = current[field] ?? null;
     if (isDeepStrictEqual(now, value)) continue;
     const base = field in change.base ? change.base[field] : undefined;
-    if (base !== undefined && isDeepStrictEqual(now, base)) {
+    // The device set this value itself with an earlier op, so this op came after it: a device's own
+    // edits chain even when its base is stale (it went back to an older server copy after a clash).
+    const sameDevice = sources[field]?.deviceId === incoming.deviceId;
+    if (sameDevice || (base !== undefined && isDeepStrictEqual(now, base))) {
       merge.apply[field] = value;
     } else {
       merge.conflicts.push({

@@ -20,18 +20,25 @@ export async function pullChanges(db: Database, roles: readonly RoleAssignment[]
   const scope = (column: typeof syncRecords.competitionId | typeof syncConflicts.competitionId): SQL | undefined =>
     competitions ? inArray(column, competitions) : undefined;
 
-  const records = await db
-    .select()
-    .from(syncRecords)
-    .where(and(gt(syncRecords.changeSeq, after), scope(syncRecords.competitionId)))
-    .orderBy(asc(syncRecords.changeSeq))
-    .limit(limit + 1);
-  const conflicts = await db
-    .select()
-    .from(syncConflicts)
-    .where(and(gt(syncConflicts.changeSeq, after), scope(syncConflicts.competitionId)))
-    .orderBy(asc(syncConflicts.changeSeq))
-    .limit(limit + 1);
+  // Both reads see one snapshot: read apart, a batch committing between them would show its conflicts
+  // (numbered after its records) without its records, and the cursor would pass those records for ever.
+  const { records, conflicts } = await db.transaction(
+    async (tx) => ({
+      records: await tx
+        .select()
+        .from(syncRecords)
+        .where(and(gt(syncRecords.changeSeq, after), scope(syncRecords.competitionId)))
+        .orderBy(asc(syncRecords.changeSeq))
+        .limit(limit + 1),
+      conflicts: await tx
+        .select()
+        .from(syncConflicts)
+        .where(and(gt(syncConflicts.changeSeq, after), scope(syncConflicts.competitionId)))
+        .orderBy(asc(syncConflicts.changeSeq))
+        .limit(limit + 1),
+    }),
+    { isolationLevel: 'repeatable read', accessMode: 'read only' },
+  );
 
   const changes: SyncChange[] = [
     ...records.map((r): SyncChange => ({

@@ -6,8 +6,10 @@ import { syncOpSchema, type ConflictSide, type FieldSource, type OpResult, type 
 import type { Database } from '../db/client';
 import { deviceCursors, opReceipts, syncConflicts, syncCounter, syncRecords } from '../db/schema';
 import { refuseOp } from './authorise-op';
+import { insertRows, updateRows } from './bulk-rows';
 import { loadAuthors } from './load-batch-context';
 import { mergeFields } from './merge-fields';
+import { hasUnstorableText, maxOpNesting, nestedTooDeep } from './storable-json';
 
 type RecordRow = typeof syncRecords.$inferSelect;
 type ConflictRow = typeof syncConflicts.$inferSelect;
@@ -20,16 +22,20 @@ export interface PushSession {
   roles: RoleAssignment[];
 }
 
-/** PostgreSQL takes at most 65,535 bind parameters per statement; stay well below. */
-const maxParameters = 30_000;
-function chunks<T>(rows: readonly T[], columns: number): T[][] {
-  const size = Math.max(1, Math.floor(maxParameters / columns));
-  const out: T[][] = [];
-  for (let i = 0; i < rows.length; i += size) out.push(rows.slice(i, i + size));
-  return out;
-}
-
 const rejected = (reason: string): Outcome => ({ status: 'rejected', reason, conflictIds: [] });
+
+/** The op, or why it cannot be read at all: then it gets no receipt, as its id and number cannot be trusted. */
+function readOp(raw: unknown): { op: SyncOp } | { problem: string } {
+  if (nestedTooDeep(raw)) return { problem: `record: values nested more than ${maxOpNesting} levels deep` };
+  const parsed = syncOpSchema.safeParse(raw);
+  if (!parsed.success) {
+    const issue = parsed.error.issues[0];
+    return { problem: `${issue?.path.join('.') || 'record'}: ${issue?.message}` };
+  }
+  // The receipt keeps the author's id, so an id PostgreSQL cannot store makes the op unreadable.
+  if (hasUnstorableText(parsed.data.userId)) return { problem: 'userId: not an official this server can know' };
+  return { op: parsed.data };
+}
 
 /**
  * Applies one pushed batch in one transaction (SPEC.md §1–§7): each device's ops in sequence order,
@@ -40,12 +46,11 @@ export async function pushOps(db: Database, session: PushSession, rawOps: readon
   const results: OpResult[] = [];
   const valid: { index: number; op: SyncOp }[] = [];
   rawOps.forEach((raw, index) => {
-    const parsed = syncOpSchema.safeParse(raw);
-    if (parsed.success) valid.push({ index, op: parsed.data });
+    const read = readOp(raw);
+    if ('op' in read) valid.push({ index, op: read.op });
     else {
       const opId = typeof raw === 'object' && raw && typeof (raw as { opId?: unknown }).opId === 'string' ? (raw as { opId: string }).opId : null;
-      const problem = parsed.error.issues[0];
-      results.push({ index, opId, ...rejected(`This record is not complete or not readable (${problem?.path.join('.') || 'record'}: ${problem?.message}).`) });
+      results.push({ index, opId, ...rejected(`This record is not complete or not readable (${read.problem}).`) });
     }
   });
   valid.sort((a, b) => (a.op.deviceId < b.op.deviceId ? -1 : a.op.deviceId > b.op.deviceId ? 1 : a.op.seq - b.op.seq));
@@ -59,6 +64,14 @@ export async function pushOps(db: Database, session: PushSession, rawOps: readon
   });
   return results.sort((a, b) => a.index - b.index);
 }
+
+/**
+ * The op was authorised for the competition, area and kind it names (SPEC.md §6), so a change to a
+ * record of another competition, area or kind would slip past that check.
+ */
+const namesAnotherRecord = (op: SyncOp, record: RecordRow) =>
+  record.competitionId !== op.competitionId || record.area !== op.area || record.kind !== op.recordKind;
+const namesAnotherRecordReason = 'This change names another competition, area or kind of record than the record it changes.';
 
 class Batch {
   private receipts = new Map<string, Outcome>();
@@ -95,19 +108,27 @@ class Batch {
       const rows = await tx.select().from(syncConflicts).where(inArray(syncConflicts.id, settled)).orderBy(asc(syncConflicts.id)).for('update');
       for (const row of rows) this.conflicts.set(row.id, row);
     }
-    const recordIds = [...new Set([...ops.map((op) => op.recordId), ...[...this.conflicts.values()].map((c) => c.recordId)])].sort();
+    // A duplicate-record settlement may tombstone either record of the clash, so both are loaded.
+    const clashRecords = [...this.conflicts.values()].flatMap((c) => (c.kind === 'duplicate-record' ? [c.recordId, String(c.incoming.value)] : [c.recordId]));
+    const recordIds = [...new Set([...ops.map((op) => op.recordId), ...clashRecords])].sort();
     for (const row of await tx.select().from(syncRecords).where(inArray(syncRecords.id, recordIds)).orderBy(asc(syncRecords.id)).for('update')) {
       this.records.set(row.id, row);
     }
     const keys = ops.flatMap((op) => {
-      const key = op.action === 'create' ? naturalKey(op.recordKind as RecordKind, op.competitionId, op.fields) : null;
+      const key = op.action === 'create' && !hasUnstorableText(op.fields) ? naturalKey(op.recordKind as RecordKind, op.competitionId, op.fields) : null;
       return key ? [key] : [];
     });
     if (keys.length > 0) {
+      // One batch at a time per sled and run (held to commit), so two devices syncing the same check
+      // at the same moment still meet as a duplicate; keys in order, so two batches never deadlock.
+      await tx.execute(sql`select pg_advisory_xact_lock(hashtextextended(key, 0)) from jsonb_array_elements_text(${JSON.stringify([...new Set(keys)].sort())}::jsonb) as t(key)`);
       const rows = await tx
         .select({ id: syncRecords.id, naturalKey: syncRecords.naturalKey })
         .from(syncRecords)
-        .where(and(inArray(syncRecords.naturalKey, keys), eq(syncRecords.deleted, false)));
+        .where(and(inArray(syncRecords.naturalKey, keys), eq(syncRecords.deleted, false)))
+        // A later check of the sled clashes with the first one, not with another late one (those are
+        // the incoming side of an open duplicate-record conflict), so a sled's clashes share one record.
+        .orderBy(sql`exists (select 1 from ${syncConflicts} where ${syncConflicts.kind} = 'duplicate-record' and ${syncConflicts.status} = 'open' and ${syncConflicts.incoming}->>'value' = ${syncRecords.id}::text)`, asc(syncRecords.id));
       for (const row of rows) if (row.naturalKey && !this.byNaturalKey.has(row.naturalKey)) this.byNaturalKey.set(row.naturalKey, row.id);
     }
     this.authors = await loadAuthors(tx, ops);
@@ -131,6 +152,9 @@ class Batch {
   }
 
   private decide(op: SyncOp): Outcome {
+    if (hasUnstorableText(op)) {
+      return rejected('This record holds a character the server cannot store (an invisible control character or half of an emoji); correct the text and save it again.');
+    }
     if (!this.authors.displayNames.has(op.userId)) return rejected('This record names an official this server does not know.');
     const refusal = refuseOp(op, { ...this.authors, sessionUserId: this.session.userId, sessionDeviceId: this.session.deviceId, sessionRoles: this.session.roles });
     if (refusal) return rejected(refusal);
@@ -194,6 +218,7 @@ class Batch {
 
   private update(op: SyncOp, source: FieldSource, existing: RecordRow | undefined): Outcome {
     if (!existing) return rejected('The record this change belongs to has not reached the server.');
+    if (namesAnotherRecord(op, existing)) return rejected(namesAnotherRecordReason);
     const kind = existing.kind as RecordKind;
     if (appendOnlyKinds.has(kind)) return rejected('Readings and measurements are never changed; record a correction instead.');
     const parsed = recordFieldSchemas[kind].partial().strict().safeParse(op.fields);
@@ -211,6 +236,7 @@ class Batch {
 
   private remove(op: SyncOp, existing: RecordRow | undefined): Outcome {
     if (!existing) return rejected('The record to remove has not reached the server.');
+    if (namesAnotherRecord(op, existing)) return rejected(namesAnotherRecordReason);
     if (!existing.deleted) {
       existing.deleted = true;
       existing.version += 1;
@@ -223,6 +249,10 @@ class Batch {
     const conflict = op.settlement ? this.conflicts.get(op.settlement.conflictId) : undefined;
     if (!conflict || !op.settlement) return rejected('The clash to settle is not known to the server.');
     if (conflict.status === 'settled') return rejected('This clash was already settled.');
+    // The settler was authorised for the op's competition and area, so the clash must lie there.
+    if (conflict.competitionId !== op.competitionId || conflict.area !== op.area) {
+      return rejected('This settlement names another competition or area than the clash it settles.');
+    }
     const record = this.records.get(conflict.recordId);
     if (!record) return rejected('The record of this clash is missing.');
     const value = conflict.field ? op.fields[conflict.field] : op.fields['keep'];
@@ -286,21 +316,14 @@ class Batch {
       for (const id of this.changedRecords) this.records.get(id)!.changeSeq = next++;
       for (const id of this.changedConflicts) this.conflicts.get(id)!.changeSeq = next++;
     }
-    const inserted = this.changedRecords.filter((id) => this.newRecords.has(id)).map((id) => this.records.get(id)!);
-    for (const rows of chunks(inserted, 14)) await tx.insert(syncRecords).values(rows);
-    for (const id of this.changedRecords.filter((id) => !this.newRecords.has(id))) {
-      const { fields, fieldSources, deleted, version, changeSeq } = this.records.get(id)!;
-      await tx.update(syncRecords).set({ fields, fieldSources, deleted, version, changeSeq }).where(eq(syncRecords.id, id));
-    }
-    const newConflicts = this.changedConflicts.filter((id) => this.newConflicts.has(id)).map((id) => this.conflicts.get(id)!);
-    for (const rows of chunks(newConflicts, 12)) await tx.insert(syncConflicts).values(rows);
-    for (const id of this.changedConflicts.filter((id) => !this.newConflicts.has(id))) {
-      const { status, settlement, changeSeq } = this.conflicts.get(id)!;
-      await tx.update(syncConflicts).set({ status, settlement, changeSeq }).where(eq(syncConflicts.id, id));
-    }
-    for (const rows of chunks(this.newReceipts, 8)) await tx.insert(opReceipts).values(rows);
-    for (const [deviceId, lastSeq] of this.cursors) {
-      await tx.update(deviceCursors).set({ lastSeq }).where(eq(deviceCursors.deviceId, deviceId));
-    }
+    // One statement per table and kind of write, whatever the batch holds (bulk-rows.ts).
+    const records = this.changedRecords.map((id) => this.records.get(id)!);
+    await insertRows(tx, syncRecords, records.filter((r) => this.newRecords.has(r.id)));
+    await updateRows(tx, syncRecords, 'id', ['fields', 'fieldSources', 'deleted', 'version', 'changeSeq'], records.filter((r) => !this.newRecords.has(r.id)));
+    const conflicts = this.changedConflicts.map((id) => this.conflicts.get(id)!);
+    await insertRows(tx, syncConflicts, conflicts.filter((c) => this.newConflicts.has(c.id)));
+    await updateRows(tx, syncConflicts, 'id', ['status', 'settlement', 'changeSeq'], conflicts.filter((c) => !this.newConflicts.has(c.id)));
+    await insertRows(tx, opReceipts, this.newReceipts);
+    await updateRows(tx, deviceCursors, 'deviceId', ['lastSeq'], [...this.cursors].map(([deviceId, lastSeq]) => ({ deviceId, lastSeq })));
   }
 }
