@@ -6,20 +6,21 @@ import { AuthStore } from './auth-store';
 /** Gentle notices under the header: the sign-in ending soon, or a PIN hand-over the server has not seen. */
 @Component({
   selector: 'rl-auth-notices',
+  host: { class: 'rl-notice-strip' },
   changeDetection: ChangeDetectionStrategy.OnPush,
   imports: [MatButtonModule, RouterLink],
   template: `
     @if (auth.isSignedIn()) {
       @let expiry = auth.expiry();
       @if (expiry.kind !== 'fine') {
-        <p class="notice" role="status" [attr.data-kind]="expiry.kind">
+        <p class="rl-notice notice" role="status" [attr.data-kind]="expiry.kind">
           <strong>{{ expiry.kind === 'ended' ? 'Sign-in ended.' : 'Sign-in ends soon.' }}</strong> {{ expiry.text }}
           <br />
           <a mat-stroked-button routerLink="/sign-in">Sign in again</a>
         </p>
       }
       @if (auth.isHandOverPending()) {
-        <p class="notice" role="status">
+        <p class="rl-notice notice" role="status">
           <strong>{{ auth.user()?.displayName }} took over this device with no signal.</strong> What you record now
           carries your name. The server still has {{ auth.serverUser()?.displayName }} signed in here; with a signal
           it follows, or choose your own name under “Switch official”.
@@ -28,20 +29,6 @@ import { AuthStore } from './auth-store';
     }
   `,
   styles: `
-    :host {
-      display: block;
-      max-width: 1100px;
-      margin: 0 auto;
-      width: 100%;
-      box-sizing: border-box;
-    }
-    .notice {
-      margin: 12px 16px 0;
-      padding: 12px 16px;
-      border: 2px solid var(--mat-sys-outline);
-      border-radius: 8px;
-      font-size: 1.05rem;
-    }
     .notice a {
       margin-top: 12px;
     }

@@ -12,12 +12,13 @@ import { StorageGuard } from './storage-guard';
  */
 @Component({
   selector: 'rl-storage-banner',
+  host: { class: 'rl-notice-strip' },
   changeDetection: ChangeDetectionStrategy.OnPush,
   imports: [MatButtonModule, RouterLink],
   template: `
     @if (auth.isSignedIn()) {
       @if (storage.isFull()) {
-        <section class="banner full" role="alert" aria-labelledby="storage-full-title">
+        <section class="rl-notice banner full" role="alert" aria-labelledby="storage-full-title">
           <p>
             <strong id="storage-full-title">⚠ Storage full: the last record was NOT saved.</strong>
             Sync now so the server holds the records, or export a backup and free some space on this device; then
@@ -32,7 +33,7 @@ import { StorageGuard } from './storage-guard';
           }
         </section>
       } @else if (storage.isNearlyFull()) {
-        <section class="banner" role="status">
+        <section class="rl-notice banner" role="status">
           <p>
             <strong>⚠ Storage {{ usedPercent() }} % used.</strong> Sync soon; with no signal, export a backup from the
             sync screen.
@@ -43,20 +44,6 @@ import { StorageGuard } from './storage-guard';
     }
   `,
   styles: `
-    :host {
-      display: block;
-      max-width: 1100px;
-      margin: 0 auto;
-      width: 100%;
-      box-sizing: border-box;
-    }
-    .banner {
-      margin: 12px 16px 0;
-      padding: 12px 16px;
-      border: 3px solid var(--mat-sys-outline);
-      border-radius: 8px;
-      font-size: 1.1rem;
-    }
     .banner.full {
       border-color: var(--mat-sys-error);
       border-width: 4px;

@@ -7,11 +7,12 @@ import { DeviceStore } from './device-store';
 /** "A new version is ready": the button reloads only when nothing is at risk, and says why it waits. */
 @Component({
   selector: 'rl-update-prompt',
+  host: { class: 'rl-notice-strip' },
   changeDetection: ChangeDetectionStrategy.OnPush,
   imports: [MatButtonModule, RouterLink],
   template: `
     @if (store.replacedByNewerTab()) {
-      <section class="prompt" role="alert">
+      <section class="rl-notice prompt" role="alert">
         <p>
           <strong>This app was updated in another tab.</strong> This tab can no longer save records; reload it. Records
           already saved stay on this device.
@@ -19,7 +20,7 @@ import { DeviceStore } from './device-store';
         <button mat-flat-button type="button" class="primary-action" (click)="update.reloadForNewerTab()">Reload</button>
       </section>
     } @else if (update.isReady()) {
-      <section class="prompt" role="status">
+      <section class="rl-notice prompt" role="status">
         <p><strong>A new version is ready.</strong></p>
         <div class="actions">
           @if (update.waitReason(); as reason) {
@@ -36,20 +37,6 @@ import { DeviceStore } from './device-store';
   `,
   styles: `
     @use '@angular/material' as mat;
-    :host {
-      display: block;
-      max-width: 1100px;
-      margin: 0 auto;
-      width: 100%;
-      box-sizing: border-box;
-    }
-    .prompt {
-      margin: 12px 16px 0;
-      padding: 12px 16px;
-      border: 3px solid var(--mat-sys-outline);
-      border-radius: 8px;
-      font-size: 1.1rem;
-    }
     .prompt p {
       margin: 0 0 12px;
     }
