@@ -54,20 +54,32 @@ const artificialEquipment: EquipmentItem[] = [
   { id: 'bib-fixed', label: 'Start-number bib fixed' },
 ];
 
+// Values both track types share (trade practice), and the ones both leave to the organiser.
+const rulebookNote = 'Check every value against the rulebook in force before opening the competition.';
+const steelMargin = () => pv('Steel may be warmer than the control steel by at most', 50, 'celsius', tradePractice());
+const controlInterval = () => pv('Control steel reading every', 15, 'minutes', tradePractice());
+const controlGrace = () => unset('Control reading still usable after it is due for', 'minutes', graceNote);
+const maxWaitingSleds = () => pv('Controlled sleds waiting in the start area, at most', 2, 'count', tradePractice());
+const unsetDrawWeights = () => ({
+  none: unset('Finish draw: weight of "no inspection"', 'count', finishNote),
+  remeasure: unset('Finish draw: weight of "re-measure"', 'count', finishNote),
+  detailed: unset('Finish draw: weight of "detailed check"', 'count', finishNote),
+});
+
 function naturalProfile(id: string, name: string, levels: CompetitionLevel[]): RulesProfile {
   return {
     id,
     name,
     trackType: 'natural',
     levels,
-    rulebookNote: 'Check every value against the rulebook in force before opening the competition.',
+    rulebookNote,
     temperature: {
-      margin: pv('Steel may be warmer than the control steel by at most', 50, 'celsius', tradePractice()),
+      margin: steelMargin(),
       floor: pv('Steel limit never below (natural track)', 0, 'celsius', tradePractice()),
     },
     controlSteel: {
-      interval: pv('Control steel reading every', 15, 'minutes', tradePractice()),
-      grace: unset('Control reading still usable after it is due for', 'minutes', graceNote),
+      interval: controlInterval(),
+      grace: controlGrace(),
       minHeight: pv('Control steel height above ground, at least', 500, 'centimetre', tradePractice()),
       maxHeight: pv('Control steel height above ground, at most', 1000, 'centimetre', tradePractice()),
       minLength: null,
@@ -94,14 +106,10 @@ function naturalProfile(id: string, name: string, levels: CompetitionLevel[]): R
     dimensions: naturalDimensions(),
     gapProbe: null,
     equipment: naturalEquipment.map((item) => ({ ...item })),
-    startArea: { maxWaitingSleds: pv('Controlled sleds waiting in the start area, at most', 2, 'count', tradePractice()) },
+    startArea: { maxWaitingSleds: maxWaitingSleds() },
     finishPlan: {
       always: [],
-      drawWeights: {
-        none: unset('Finish draw: weight of "no inspection"', 'count', finishNote),
-        remeasure: unset('Finish draw: weight of "re-measure"', 'count', finishNote),
-        detailed: unset('Finish draw: weight of "detailed check"', 'count', finishNote),
-      },
+      drawWeights: unsetDrawWeights(),
       gapProbeFollowUp: 'detailed',
     },
   };
@@ -118,14 +126,14 @@ function artificialProfile(id: string, name: string, levels: CompetitionLevel[],
     name,
     trackType: 'artificial',
     levels,
-    rulebookNote: 'Check every value against the rulebook in force before opening the competition.',
+    rulebookNote,
     temperature: {
-      margin: pv('Steel may be warmer than the control steel by at most', 50, 'celsius', tradePractice()),
+      margin: steelMargin(),
       floor: pv('Steel limit never below (artificial track)', 10, 'celsius', tradePractice()),
     },
     controlSteel: {
-      interval: pv('Control steel reading every', 15, 'minutes', tradePractice()),
-      grace: unset('Control reading still usable after it is due for', 'minutes', graceNote),
+      interval: controlInterval(),
+      grace: controlGrace(),
       minHeight: null,
       maxHeight: null,
       minLength: pv('Control steel length, at least', 200, 'centimetre', tradePractice()),
@@ -174,14 +182,10 @@ function artificialProfile(id: string, name: string, levels: CompetitionLevel[],
     dimensions: [],
     gapProbe: { feeler: pv('Gap probe feeler thickness', 5, 'millimetre', tradePractice()) },
     equipment: artificialEquipment.map((item) => ({ ...item })),
-    startArea: { maxWaitingSleds: pv('Controlled sleds waiting in the start area, at most', 2, 'count', tradePractice()) },
+    startArea: { maxWaitingSleds: maxWaitingSleds() },
     finishPlan: {
       always: [],
-      drawWeights: {
-        none: unset('Finish draw: weight of "no inspection"', 'count', finishNote),
-        remeasure: unset('Finish draw: weight of "re-measure"', 'count', finishNote),
-        detailed: unset('Finish draw: weight of "detailed check"', 'count', finishNote),
-      },
+      drawWeights: unsetDrawWeights(),
       gapProbeFollowUp: 'remeasure',
     },
   };
