@@ -47,6 +47,13 @@ export interface Rejection {
   reason: string;
   op: SyncOp;
   rejectedAt: string;
+  /** Set when an official put the refusal away (after entering the values again the right way); the row stays as evidence. */
+  dismissed?: { userId: string; at: string } | null;
+}
+
+/** Refusals still shown to the officials. */
+export function isShownRejection(rejection: Rejection): boolean {
+  return !rejection.dismissed;
 }
 
 /** A conflict as the server sent it, plus this device's settlement while it is still in the outbox. */

@@ -51,7 +51,7 @@ async function applyPushAnswers(db: DeviceDb, entries: readonly OutboxEntry[], r
       }
       await db.outbox.delete(entry.opId);
       if (result.status === 'rejected') {
-        await db.rejections.put({ opId: entry.opId, recordId: entry.recordId, reason: result.reason, op: entry.op, rejectedAt: at });
+        await db.rejections.put({ opId: entry.opId, recordId: entry.recordId, reason: result.reason, op: entry.op, rejectedAt: at, dismissed: null });
       }
       const settled = entry.op.settlement ? await db.conflicts.get(entry.op.settlement.conflictId) : undefined;
       if (settled?.localSettlement?.opId === entry.opId) await db.conflicts.put({ ...settled, localSettlement: null });

@@ -6,6 +6,7 @@ import type { PullResponse, SyncRecord } from '../../../../shared/sync/sync-api'
 import { readSyncState, type DeviceDb, type LocalRecord } from './device-db';
 import { applyPulledPage, pullChanges } from './pull-changes';
 import { pushOutbox } from './push-outbox';
+import { dismissRejection, readRejections } from './rejections';
 import { createRecordWriter } from './record-writer';
 import { FakeSyncServer } from './testing/fake-sync-server';
 import { competitionId, leader, measurement, official, openTestDevice, otherOfficial, startCheck } from './testing/test-device';
@@ -69,6 +70,21 @@ describe('push', () => {
     expect(await db.outbox.count()).toBe(0);
     expect(await db.rejections.get(refused.op!.opId)).toMatchObject({ reason: 'Anna no longer holds an official role at the start.', op: refused.op });
     expect(await db.records.get(refused.record.id)).toBeDefined();
+  });
+
+  it('when an official puts a refusal away, then it leaves the list and the count but its values stay on the device, marked with who and when', async () => {
+    const { db, writer } = await device();
+    const server = new FakeSyncServer();
+    server.refuse = () => 'Anna no longer holds an official role at the start.';
+    const refused = await writer.createRecord('start-check', competitionId, 'start', startCheck(13), official);
+    await pushOutbox(db, server.transport(), opts);
+    expect((await readRejections(db)).map((r) => r.opId)).toEqual([refused.op!.opId]);
+
+    await dismissRejection(db, refused.op!.opId, leader, now);
+
+    expect(await readRejections(db)).toEqual([]);
+    expect(await db.rejections.get(refused.op!.opId)).toMatchObject({ op: refused.op, dismissed: { userId: leader, at: '2027-01-14T10:00:00.000Z' } });
+    await expect(dismissRejection(db, 'no-such-op', leader, now)).rejects.toThrow(/no longer on this device/);
   });
 
   // server/sync/SPEC.md §2, §3

@@ -2,7 +2,7 @@ import { liveQuery } from 'dexie';
 import { BehaviorSubject, NEVER, Subject, Subscription, combineLatest, defer, from, fromEvent, map, merge, race, repeat, retry, shareReplay, take, timer, type Observable } from 'rxjs';
 import { clockOffsetMs, clockWarningMs } from '../../../../shared/sync/hybrid-clock';
 import { backoffDelayMs, defaultBackoff, type BackoffPolicy } from './backoff';
-import { readSyncState, syncStateKey, type DeviceDb, type SyncState } from './device-db';
+import { isShownRejection, readSyncState, syncStateKey, type DeviceDb, type SyncState } from './device-db';
 import { pullChanges } from './pull-changes';
 import { emptyPushSummary, pushOutbox, type PushSummary } from './push-outbox';
 import { SyncTransportError, type SyncTransport } from './sync-transport';
@@ -197,7 +197,7 @@ export function createSyncEngine(options: SyncEngineOptions) {
 async function readStoredStatus(db: DeviceDb) {
   return {
     pendingCount: (await db.outbox.orderBy('recordId').uniqueKeys()).length,
-    rejectedCount: await db.rejections.count(),
+    rejectedCount: await db.rejections.filter(isShownRejection).count(),
     openConflicts: await db.conflicts
       .where('status')
       .equals('open')

@@ -5,7 +5,8 @@ import type { DeviceDb, Rejection } from '../device-store/device-db';
 import { createRecordWriter, type RecordWriter } from '../device-store/record-writer';
 import { createSyncEngine, type SyncEngine } from '../device-store/sync-engine';
 import type { DeviceStoreBackend } from './device-store-backend';
-import { readOutboxSummary, readRejections, type OutboxSummary } from './outbox-summary';
+import { readOutboxSummary, type OutboxSummary } from './outbox-summary';
+import { dismissRejection, readRejections } from '../device-store/rejections';
 
 /** Everything that needs Dexie, in one lazily loaded chunk so the first screen does not wait for it. */
 export interface DeviceRuntime {
@@ -16,6 +17,7 @@ export interface DeviceRuntime {
   rejections$: Observable<Rejection[]>;
   exportBackup: () => ReturnType<typeof exportBackup>;
   importBackup: (contents: string) => ReturnType<typeof importBackup>;
+  dismissRejection: (opId: string, userId: string) => Promise<void>;
 }
 
 export function startDeviceRuntime(db: DeviceDb, backend: DeviceStoreBackend): DeviceRuntime {
@@ -29,6 +31,7 @@ export function startDeviceRuntime(db: DeviceDb, backend: DeviceStoreBackend): D
     rejections$: live(() => readRejections(db)),
     exportBackup: () => exportBackup(db, { now }),
     importBackup: (contents) => importBackup(db, contents, { now }),
+    dismissRejection: (opId, userId) => dismissRejection(db, opId, userId, now),
   };
 }
 

@@ -121,6 +121,14 @@ export class DeviceStore {
     }
   }
 
+  /** Puts a refusal away (the values stay on the device, marked with who did it and when). */
+  async dismissRejection(opId: string): Promise<void> {
+    const runtime = await this.ready();
+    const user = this.auth.activeUserId();
+    if (user === null) throw new RecordRefusedError('Sign in first: putting a refusal away says who did it.');
+    await runtime.dismissRejection(opId, user);
+  }
+
   createRecord(kind: RecordKind, competitionId: string, area: Area, fields: Record<string, unknown>): Promise<WriteResult> {
     return this.write((writer, user) => writer.createRecord(kind, competitionId, area, fields, user));
   }

@@ -1,5 +1,5 @@
 import type { RecordKind } from '../../../../shared/sync/record-kinds';
-import type { DeviceDb, Rejection } from '../device-store/device-db';
+import type { DeviceDb } from '../device-store/device-db';
 
 /** What waits in the outbox, for the sync screen. */
 export interface OutboxSummary {
@@ -28,10 +28,4 @@ export async function readOutboxSummary(db: DeviceDb): Promise<OutboxSummary> {
       .sort((a, b) => a.kind.localeCompare(b.kind)),
     deferred: [...deferred].map(([reason, changes]) => ({ reason, changes })),
   };
-}
-
-/** Refused changes, newest first. */
-export async function readRejections(db: DeviceDb): Promise<Rejection[]> {
-  const rejections = await db.rejections.toArray();
-  return rejections.sort((a, b) => b.rejectedAt.localeCompare(a.rejectedAt) || b.op.seq - a.op.seq);
 }
