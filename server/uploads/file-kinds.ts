@@ -1,6 +1,7 @@
+import { photoMediaTypes, type PhotoMediaType } from '../../shared/sync/record-kinds';
 /** The files devices upload: evidence photos (resized to JPEG on the device) and calibration certificates. */
-export const uploadContentTypes = ['image/jpeg', 'image/png', 'image/webp', 'application/pdf'] as const;
-export type UploadContentType = (typeof uploadContentTypes)[number];
+export const uploadContentTypes = photoMediaTypes;
+export type UploadContentType = PhotoMediaType;
 
 const startsWith = (bytes: Buffer, signature: readonly number[], at = 0): boolean =>
   bytes.length >= at + signature.length && signature.every((byte, i) => bytes[at + i] === byte);

@@ -6,6 +6,11 @@ import { measurementSchema } from '../rules/measurement';
  * a new record naming the one it supersedes, with a reason. Editable kinds merge field by field.
  */
 const isoTime = z.iso.datetime({ offset: true });
+export const photoPurposes = ['evidence', 'certificate'] as const;
+export type PhotoPurpose = (typeof photoPurposes)[number];
+/** What the server's upload route accepts (server/uploads/file-kinds.ts keeps the byte signatures). */
+export const photoMediaTypes = ['image/jpeg', 'image/png', 'image/webp', 'application/pdf'] as const;
+export type PhotoMediaType = (typeof photoMediaTypes)[number];
 const correction = { supersedes: z.uuid().nullable().default(null), reason: z.string().max(500).nullable().default(null) };
 
 export const recordFieldSchemas = {
@@ -39,11 +44,24 @@ export const recordFieldSchemas = {
     note: z.string().max(2000).default(''),
     decision: z.enum(['pending', 'upheld', 'dismissed']).default('pending'),
   }),
+  /** A photo or certificate attached to a record; the file itself goes up separately, named by its SHA-256. */
+  photo: z.strictObject({
+    of: z.uuid(),
+    sha256: z.string().regex(/^[0-9a-f]{64}$/, 'must be the 64-character fingerprint of the file'),
+    purpose: z.enum(photoPurposes),
+    mediaType: z.enum(photoMediaTypes),
+    bytes: z.number().int().min(1),
+    width: z.number().int().min(1).nullable().default(null),
+    height: z.number().int().min(1).nullable().default(null),
+    takenAt: isoTime,
+    caption: z.string().max(500).default(''),
+    ...correction,
+  }),
 } as const;
 
 export type RecordKind = keyof typeof recordFieldSchemas;
 export const recordKinds = Object.keys(recordFieldSchemas) as RecordKind[];
-export const appendOnlyKinds: ReadonlySet<RecordKind> = new Set(['control-reading', 'measurement']);
+export const appendOnlyKinds: ReadonlySet<RecordKind> = new Set(['control-reading', 'measurement', 'photo']);
 
 /** Records that must be unique: a second one is kept, but as a conflict for the area leader. */
 export function naturalKey(kind: RecordKind, competitionId: string, fields: Record<string, unknown>): string | null {

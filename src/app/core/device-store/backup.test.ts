@@ -45,8 +45,8 @@ describe('local backup', () => {
     const first = await importBackup(b.db, contents, { now });
     const second = await importBackup(b.db, contents, { now });
 
-    expect(first).toEqual({ added: 2, alreadyHere: 0, recordsAdded: 1 });
-    expect(second).toEqual({ added: 0, alreadyHere: 2, recordsAdded: 0 });
+    expect(first).toEqual({ added: 2, alreadyHere: 0, recordsAdded: 1, photosAdded: 0 });
+    expect(second).toEqual({ added: 0, alreadyHere: 2, recordsAdded: 0, photosAdded: 0 });
     const ops = async (db: DeviceDb) => (await db.outbox.orderBy('seq').toArray()).map((e) => e.op);
     expect(await ops(b.db)).toEqual(await ops(a.db));
     expect((await b.db.records.get(record.id))?.fields['note']).toBe('bent runner');
@@ -83,5 +83,26 @@ describe('local backup', () => {
     await expect(importBackup(b.db, JSON.stringify(damaged))).rejects.toBeInstanceOf(BackupFileError);
     await expect(importBackup(b.db, contents.slice(0, 40))).rejects.toThrow(/not a Rimelog backup/);
     expect(await b.db.outbox.count()).toBe(0);
+  });
+
+  it('when photos wait to be uploaded, then the backup carries them and another device imports each once, checked against its fingerprint', async () => {
+    const a = await device();
+    const b = await device();
+    const { record } = await a.writer.createRecord('start-check', competitionId, 'start', startCheck(4), official);
+    const photo = await a.writer.attachPhoto(record.id, { mediaType: 'image/jpeg', data: new Uint8Array([0xff, 0xd8, 0xff, 1, 2, 3]).buffer, width: 4, height: 3 }, { purpose: 'evidence' }, official);
+    const sha = photo.record.fields['sha256'] as string;
+    const backup = await exportBackup(a.db, { now });
+    expect(backup.photoCount).toBe(1);
+
+    expect(await importBackup(b.db, backup.contents, { now })).toMatchObject({ added: 2, photosAdded: 1 });
+    expect(await importBackup(b.db, backup.contents, { now })).toMatchObject({ added: 0, photosAdded: 0 });
+    expect(await b.db.photos.get(sha)).toMatchObject({ upload: 'waiting', recordIds: [photo.record.id], bytes: 6, width: 4 });
+    expect([...new Uint8Array((await b.db.photoBytes.get(sha))!.data)]).toEqual([0xff, 0xd8, 0xff, 1, 2, 3]);
+
+    const damaged = JSON.parse(backup.contents) as { photos: { base64: string }[] };
+    damaged.photos[0]!.base64 = btoa('not the photo');
+    const c = await device();
+    await expect(importBackup(c.db, JSON.stringify(damaged))).rejects.toThrow(/photo in this backup is damaged/);
+    expect(await c.db.outbox.count()).toBe(0);
   });
 });

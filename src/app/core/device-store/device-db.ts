@@ -1,7 +1,7 @@
 import { Dexie, type DexieOptions, type Table, type Transaction } from 'dexie';
 import type { Area } from '../../../../shared/auth/roles';
 import { formatHybridTime } from '../../../../shared/sync/hybrid-clock';
-import type { RecordKind } from '../../../../shared/sync/record-kinds';
+import type { PhotoMediaType, RecordKind } from '../../../../shared/sync/record-kinds';
 import type { ConflictSettlement, SyncConflict, SyncOp, SyncRecord } from '../../../../shared/sync/sync-api';
 
 export type FieldValues = SyncOp['fields'];
@@ -61,6 +61,33 @@ export interface StoredConflict extends SyncConflict {
   localSettlement: (Omit<ConflictSettlement, 'opId'> & { opId: string }) | null;
 }
 
+/**
+ * A photo or certificate file kept on this device, named by its SHA-256. Photo records point at it;
+ * the file goes up from its own queue once one of those records has reached the server.
+ */
+export interface PhotoFile {
+  sha256: string;
+  mediaType: PhotoMediaType;
+  bytes: number;
+  width: number | null;
+  height: number | null;
+  addedAt: string;
+  /** The photo records that show this file. */
+  recordIds: string[];
+  upload: 'waiting' | 'sent';
+  attempts: number;
+  /** Why the last upload try failed, in words; null when it has not failed. */
+  lastError: string | null;
+  lastTriedAt: string | null;
+}
+
+/** A photo file's bytes, apart from its row so lists and counts never load them. */
+export interface PhotoBytes {
+  sha256: string;
+  /** An ArrayBuffer stores reliably in every browser's IndexedDB. */
+  data: ArrayBuffer;
+}
+
 export const syncStateKey = 'sync';
 export interface SyncState {
   key: typeof syncStateKey;
@@ -106,6 +133,14 @@ const versions: { version: number; stores: Record<string, string>; upgrade?: (tx
       meta: 'key',
     },
   },
+  {
+    version: 2,
+    stores: {
+      // made on this device or imported from a backup; uploaded after their record
+      photos: 'sha256, upload',
+      photoBytes: 'sha256',
+    },
+  },
 ];
 
 export class DeviceDb extends Dexie {
@@ -116,6 +151,8 @@ export class DeviceDb extends Dexie {
   declare outbox: Table<OutboxEntry, string>;
   declare rejections: Table<Rejection, string>;
   declare meta: Table<DeviceMeta, string>;
+  declare photos: Table<PhotoFile, string>;
+  declare photoBytes: Table<PhotoBytes, string>;
 
   constructor(name: string, options: IndexedDbBackend = {}) {
     super(name, {

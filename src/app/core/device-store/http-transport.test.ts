@@ -54,4 +54,39 @@ describe('HTTP transport', () => {
     const error = await failure(createHttpTransport({ fetch: answering(200, '<html>Log in to hut Wi-Fi</html>') }).heartbeat());
     expect(error).toMatchObject({ failure: 'unreachable' });
   });
+
+  describe('files', () => {
+    const sha = 'a'.repeat(64);
+    const headAnswer = (status: number, etag: string | null): typeof fetch => async () =>
+      new Response(null, { status, headers: etag ? { etag } : {} });
+
+    it('when the server has the file, then HEAD answers with its fingerprint as ETag and the file counts as there', async () => {
+      expect(await createHttpTransport({ fetch: headAnswer(200, `"${sha}"`) }).hasFile(sha)).toBe(true);
+      expect(await createHttpTransport({ fetch: headAnswer(404, null) }).hasFile(sha)).toBe(false);
+    });
+
+    it('when a 200 comes without the fingerprint (a Wi-Fi login page), then the server counts as unreachable, never as "has the file"', async () => {
+      expect(await failure(createHttpTransport({ fetch: headAnswer(200, null) }).hasFile(sha))).toMatchObject({ failure: 'unreachable' });
+      const portal = answering(200, '<html>Log in to hut Wi-Fi</html>');
+      expect(await failure(createHttpTransport({ fetch: portal }).putFile(sha, 'image/jpeg', new ArrayBuffer(3)))).toMatchObject({ failure: 'unreachable' });
+    });
+
+    it('when a file is sent, then it goes as a PUT with its own media type, and the receipt must name it', async () => {
+      const seen: Seen[] = [];
+      const receipt = { sha256: sha, contentType: 'image/jpeg', sizeBytes: 3, uploadedAt: '2027-01-14T10:00:00.000Z' };
+      await createHttpTransport({ fetch: answering(201, receipt, seen) }).putFile(sha, 'image/jpeg', new Uint8Array([0xff, 0xd8, 0xff]).buffer);
+      expect(seen[0]?.url).toBe(`/api/uploads/${sha}`);
+      expect(seen[0]?.init).toMatchObject({ method: 'PUT', credentials: 'same-origin' });
+      expect(seen[0]?.init.headers).toMatchObject({ 'content-type': 'image/jpeg', 'ngsw-bypass': 'true' });
+    });
+
+    it('when the server refuses a file, then its words come back as a refusal', async () => {
+      const body = { error: { code: 'unsupported_media_type', message: 'This file is not the JPEG photo it was sent as, so it was not kept.', details: [] } };
+      expect(await failure(createHttpTransport({ fetch: answering(415, body) }).putFile(sha, 'image/jpeg', new ArrayBuffer(3)))).toMatchObject({
+        failure: 'refused',
+        status: 415,
+        message: 'This file is not the JPEG photo it was sent as, so it was not kept.',
+      });
+    });
+  });
 });

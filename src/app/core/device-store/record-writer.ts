@@ -1,3 +1,6 @@
+import { sha256 } from '@noble/hashes/sha2.js';
+import { bytesToHex } from '@noble/hashes/utils.js';
+import type { Table } from 'dexie';
 import { v7 as uuidv7 } from 'uuid';
 import type { z } from 'zod';
 import { summariseFieldProblems, toFieldProblems } from '../../../../shared/api/field-problems';
@@ -5,7 +8,7 @@ import type { Area } from '../../../../shared/auth/roles';
 import { formatHybridTime, parseHybridTime, tick } from '../../../../shared/sync/hybrid-clock';
 import { appendOnlyKinds, recordFieldSchemas, recordKinds, type RecordKind } from '../../../../shared/sync/record-kinds';
 import { syncOpSchema, type SyncOp } from '../../../../shared/sync/sync-api';
-import { deviceMetaKey, readDeviceMeta, type DeviceDb, type FieldValue, type FieldValues, type LocalRecord, type OutboxEntry } from './device-db';
+import { deviceMetaKey, readDeviceMeta, type DeviceDb, type FieldValue, type FieldValues, type LocalRecord, type OutboxEntry, type PhotoFile } from './device-db';
 import { sameJson } from './same-json';
 import { RecordRefusedError, storageFailure } from './store-errors';
 
@@ -33,6 +36,12 @@ interface Stamp {
 
 export type RecordWriter = ReturnType<typeof createRecordWriter>;
 
+/** A file ready to keep: its bytes and, for pictures, the size in pixels. */
+export type PhotoFileInput = Pick<PhotoFile, 'mediaType' | 'width' | 'height'> & { data: ArrayBuffer };
+
+/** The server's default upload limit (RIMELOG_UPLOAD_LIMIT_MB); a resized photo is far below it. */
+export const maxPhotoBytes = 10 * 1024 * 1024;
+
 /**
  * Every change an official makes: the record and its outbox entry are written in one Dexie transaction,
  * and each function resolves only after that transaction has committed, so "saved on this device" is
@@ -44,7 +53,7 @@ export function createRecordWriter({ db, now = () => Date.now(), onCommitted }: 
    * and the advanced seq and clock together.
    */
   async function writeWithOp(
-    extraTables: readonly DeviceDb['conflicts'][],
+    extraTables: readonly Table[],
     change: (stamp: Stamp) => Promise<{ record: LocalRecord; op: SyncOp } | { record: LocalRecord; op: null }>,
   ): Promise<WriteResult> {
     let result: WriteResult;
@@ -87,6 +96,44 @@ export function createRecordWriter({ db, now = () => Date.now(), onCommitted }: 
       return writeWithOp([], async (stamp) => {
         const id = uuidv7();
         return { record: newRecord(id, kind, competitionId, area, valid, user, stamp), op: { ...opBase(stamp, user), competitionId, area, action: 'create', recordKind: kind, recordId: id, fields: valid, base: {} } };
+      });
+    },
+
+    /**
+     * A photo record for the record `of`, and its file, in one transaction: the file is kept once per
+     * SHA-256 however many records show it, and waits in the photo queue until it is uploaded.
+     */
+    async attachPhoto(of: string, input: PhotoFileInput, details: { purpose: string; caption?: string }, user: string): Promise<WriteResult> {
+      if (input.data.byteLength > maxPhotoBytes) {
+        throw new RecordRefusedError(`This file is ${(input.data.byteLength / 1048576).toFixed(1)} MB; files of at most ${maxPhotoBytes / 1048576} MB are kept. Take the photo again or scan the certificate smaller.`);
+      }
+      const file = { ...input, sha256: bytesToHex(sha256(new Uint8Array(input.data))) };
+      return writeWithOp([db.photos, db.photoBytes], async (stamp) => {
+        const target = await existing(of);
+        const id = uuidv7();
+        const fields = parseFields('photo', {
+          of,
+          sha256: file.sha256,
+          purpose: details.purpose,
+          mediaType: file.mediaType,
+          bytes: file.data.byteLength,
+          width: file.width,
+          height: file.height,
+          takenAt: stamp.madeAt,
+          caption: details.caption ?? '',
+        });
+        const kept = await db.photos.get(file.sha256);
+        if (kept) {
+          await db.photos.put({ ...kept, recordIds: [...kept.recordIds, id] });
+        } else {
+          const { data, ...described } = file;
+          await db.photos.add({ ...described, bytes: data.byteLength, addedAt: stamp.madeAt, recordIds: [id], upload: 'waiting', attempts: 0, lastError: null, lastTriedAt: null });
+          await db.photoBytes.put({ sha256: file.sha256, data });
+        }
+        return {
+          record: newRecord(id, 'photo', target.competitionId, target.area, fields, user, stamp),
+          op: { ...opBase(stamp, user), competitionId: target.competitionId, area: target.area, action: 'create', recordKind: 'photo', recordId: id, fields, base: {} },
+        };
       });
     },
 

@@ -6,6 +6,7 @@ import { isShownRejection, readSyncState, syncStateKey, type DeviceDb, type Sync
 import { pullChanges } from './pull-changes';
 import { emptyPushSummary, pushOutbox, type PushSummary } from './push-outbox';
 import { SyncTransportError, type SyncTransport } from './sync-transport';
+import { emptyPhotoUploadSummary, uploadWaitingPhotos, type PhotoUploadSummary, type UploadTransport } from './upload-photos';
 
 export interface SyncStatus {
   /** The server answered the last heartbeat; null before the first try. */
@@ -23,6 +24,10 @@ export interface SyncStatus {
   clockOffsetMs: number | null;
   /** Set when the device clock is more than 2 minutes off. */
   clockWarning: string | null;
+  /** Photo and certificate files not uploaded yet. */
+  photosWaiting: number;
+  /** Why the oldest waiting file failed last time, in words; null when none failed. */
+  photoError: string | null;
 }
 
 export interface RoundResult {
@@ -31,12 +36,15 @@ export interface RoundResult {
   skipped: boolean;
   pushed: PushSummary;
   pulledChanges: number;
+  photos: PhotoUploadSummary;
   error: string | null;
 }
 
 export interface SyncEngineOptions {
   db: DeviceDb;
   transport: SyncTransport;
+  /** Where photo files go; without it they wait on the device. */
+  uploads?: UploadTransport;
   now?: () => number;
   random?: () => number;
   /** The wait between rounds while all is well. */
@@ -94,6 +102,8 @@ export function createSyncEngine(options: SyncEngineOptions) {
       lastError: m.lastError !== undefined ? m.lastError : s.state.lastError,
       clockOffsetMs: m.clockOffsetMs,
       clockWarning: m.clockOffsetMs !== null && Math.abs(m.clockOffsetMs) > clockWarningMs ? clockWords(m.clockOffsetMs) : null,
+      photosWaiting: s.photosWaiting,
+      photoError: s.photoError,
     })),
     shareReplay({ bufferSize: 1, refCount: true }),
   );
@@ -115,14 +125,25 @@ export function createSyncEngine(options: SyncEngineOptions) {
       const pulled = await pullChanges(db, transport, { now });
       failures = 0;
       await keepOutcome({ lastSyncAt: new Date(now()).toISOString(), lastError: null });
+      const photos = await uploadPhotos();
       update({ syncing: false, lastError: null });
-      return { ok: true, skipped: false, pushed, pulledChanges: pulled.changes, error: null };
+      return { ok: true, skipped: false, pushed, pulledChanges: pulled.changes, photos, error: null };
     } catch (error) {
       failures++;
       const words = describeFailure(error);
       await keepOutcome({ lastError: words });
       update({ syncing: false, lastError: words, online: heartbeatAnswered ? memory.value.online : false });
-      return { ok: false, skipped: false, pushed, pulledChanges: 0, error: words };
+      return { ok: false, skipped: false, pushed, pulledChanges: 0, photos: emptyPhotoUploadSummary(), error: words };
+    }
+  }
+
+  /** After the records: a failing file keeps its reason on its row and never fails the round. */
+  async function uploadPhotos(): Promise<PhotoUploadSummary> {
+    if (!options.uploads) return emptyPhotoUploadSummary();
+    try {
+      return await uploadWaitingPhotos(db, options.uploads, { now });
+    } catch {
+      return emptyPhotoUploadSummary();
     }
   }
 
@@ -142,11 +163,11 @@ export function createSyncEngine(options: SyncEngineOptions) {
     wokenDuringRound = false;
     inFlight = lock(round)
       .then(
-        (result) => result ?? { ok: true, skipped: true, pushed: emptyPushSummary(), pulledChanges: 0, error: null },
+        (result) => result ?? { ok: true, skipped: true, pushed: emptyPushSummary(), pulledChanges: 0, photos: emptyPhotoUploadSummary(), error: null },
         // Only the lock itself can fail here (round() catches its own errors); the loop must live on.
         (error: unknown) => {
           failures++;
-          return { ok: false, skipped: false, pushed: emptyPushSummary(), pulledChanges: 0, error: describeFailure(error) };
+          return { ok: false, skipped: false, pushed: emptyPushSummary(), pulledChanges: 0, photos: emptyPhotoUploadSummary(), error: describeFailure(error) };
         },
       )
       .finally(() => {
@@ -204,7 +225,18 @@ async function readStoredStatus(db: DeviceDb) {
       .filter((c) => c.localSettlement === null)
       .count(),
     state: await readSyncState(db),
+    ...(await readPhotoQueue(db)),
   };
+}
+
+async function readPhotoQueue(db: DeviceDb): Promise<{ photosWaiting: number; photoError: string | null }> {
+  const waiting = await db.photos.where('upload').equals('waiting').primaryKeys();
+  const failed = await db.photos
+    .where('upload')
+    .equals('waiting')
+    .filter((photo) => photo.lastError !== null)
+    .first();
+  return { photosWaiting: waiting.length, photoError: failed?.lastError ?? null };
 }
 
 function describeFailure(error: unknown): string {

@@ -1,7 +1,8 @@
 import { liveQuery } from 'dexie';
 import { from, retry, type Observable } from 'rxjs';
 import { exportBackup, importBackup } from '../device-store/backup';
-import type { DeviceDb, Rejection } from '../device-store/device-db';
+import type { RecordKind } from '../../../../shared/sync/record-kinds';
+import type { DeviceDb, LocalRecord, Rejection } from '../device-store/device-db';
 import { createRecordWriter, type RecordWriter } from '../device-store/record-writer';
 import { createSyncEngine, type SyncEngine } from '../device-store/sync-engine';
 import type { DeviceStoreBackend } from './device-store-backend';
@@ -18,11 +19,15 @@ export interface DeviceRuntime {
   exportBackup: () => ReturnType<typeof exportBackup>;
   importBackup: (contents: string) => ReturnType<typeof importBackup>;
   dismissRejection: (opId: string, userId: string) => Promise<void>;
+  /** The records of one kind in a competition as this device sees them, kept up to date. */
+  watchRecords: (competitionId: string, kind: RecordKind) => Observable<LocalRecord[]>;
+  /** A photo file's bytes when this device has them. */
+  photoBytes: (sha256: string) => Promise<ArrayBuffer | null>;
 }
 
 export function startDeviceRuntime(db: DeviceDb, backend: DeviceStoreBackend): DeviceRuntime {
   const now = backend.now;
-  const engine = createSyncEngine({ ...backend.engine, db, transport: backend.transport, now });
+  const engine = createSyncEngine({ ...backend.engine, db, transport: backend.transport, ...(backend.uploads ? { uploads: backend.uploads } : {}), now });
   return {
     db,
     engine,
@@ -32,6 +37,8 @@ export function startDeviceRuntime(db: DeviceDb, backend: DeviceStoreBackend): D
     exportBackup: () => exportBackup(db, { now }),
     importBackup: (contents) => importBackup(db, contents, { now }),
     dismissRejection: (opId, userId) => dismissRejection(db, opId, userId, now),
+    watchRecords: (competitionId, kind) => live(() => db.records.where('[competitionId+kind]').equals([competitionId, kind]).toArray()),
+    photoBytes: async (sha256) => (await db.photoBytes.get(sha256))?.data ?? null,
   };
 }
 

@@ -76,4 +76,26 @@ describe('DeviceStore', () => {
     await until(() => store.isRunning() && TestBed.inject(StorageGuard).persistence() === 'may-clear', 'the second start has looked');
     expect(storage.persistCalls).toBe(1);
   });
+
+  it('when a certificate is attached to a record, then it is kept with its photo record and uploaded after that record', async () => {
+    const { server } = setUp();
+    const store = await startSignedIn(firstOfficial);
+    const { record } = await store.createRecord('start-check', competitionId, 'start', startCheck(24));
+    const pdf = new Blob([new TextEncoder().encode('%PDF-1.7 calibration')], { type: 'application/pdf' });
+
+    const { record: photo } = await store.attachPhoto(record.id, pdf, 'certificate', 'pyrometer calibration');
+
+    expect(photo.fields).toMatchObject({ of: record.id, purpose: 'certificate', mediaType: 'application/pdf', width: null, caption: 'pyrometer calibration' });
+    await until(() => server.files.has(photo.fields['sha256'] as string), 'the file is uploaded');
+    expect(server.records.has(photo.id)).toBe(true);
+    expect(server.calls.lastIndexOf('push')).toBeLessThan(server.calls.indexOf('put-file'));
+    expect(await store.photoUrl(photo.fields['sha256'] as string, 'application/pdf')).toMatch(/^blob:/);
+  });
+
+  it('when a file is not a picture this device can open, then nothing is saved and the official is told why', async () => {
+    setUp();
+    const store = await startSignedIn(firstOfficial);
+    const { record } = await store.createRecord('start-check', competitionId, 'start', startCheck(25));
+    await expect(store.attachPhoto(record.id, new Blob(['not a picture'], { type: 'image/jpeg' }), 'evidence')).rejects.toThrow(/not a photo this device can open/);
+  });
 });

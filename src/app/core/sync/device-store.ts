@@ -1,10 +1,10 @@
 import { DestroyRef, Injectable, Injector, computed, effect, inject, signal, untracked } from '@angular/core';
-import { Subscription } from 'rxjs';
+import { Subscription, from, switchMap, type Observable } from 'rxjs';
 import type { Area } from '../../../../shared/auth/roles';
-import type { RecordKind } from '../../../../shared/sync/record-kinds';
+import type { PhotoPurpose, RecordKind } from '../../../../shared/sync/record-kinds';
 import { AuthStore } from '../../auth/auth-store';
 import { deviceId } from '../../auth/device-id';
-import type { Rejection } from '../device-store/device-db';
+import type { LocalRecord, Rejection } from '../device-store/device-db';
 import type { RecordWriter, WriteResult } from '../device-store/record-writer';
 import { isQuotaError, RecordRefusedError, StorageFullError } from '../device-store/store-errors';
 import type { RoundResult, SyncStatus } from '../device-store/sync-engine';
@@ -127,6 +127,29 @@ export class DeviceStore {
     const user = this.auth.activeUserId();
     if (user === null) throw new RecordRefusedError('Sign in first: putting a refusal away says who did it.');
     await runtime.dismissRejection(opId, user);
+  }
+
+  /**
+   * Keeps a photo or certificate for the record `of`: scaled to 1600 px JPEG on this device, then saved with
+   * its photo record in one transaction. It is uploaded after that record has reached the server.
+   */
+  async attachPhoto(of: string, file: Blob, purpose: PhotoPurpose, caption = ''): Promise<WriteResult> {
+    const prepared = await (await import('../photos/prepare-photo')).preparePhoto(file);
+    return this.write((writer, user) => writer.attachPhoto(of, prepared, { purpose, caption }, user));
+  }
+
+  /** The records of one kind in a competition, as this device sees them; updates itself after every change. */
+  watchRecords(competitionId: string, kind: RecordKind): Observable<LocalRecord[]> {
+    return from(this.ready()).pipe(switchMap((runtime) => runtime.watchRecords(competitionId, kind)));
+  }
+
+  /**
+   * An address to show a photo from: its bytes on this device, or else the server's copy (a photo taken on
+   * another device). Revoke a blob: address with URL.revokeObjectURL when it leaves the screen.
+   */
+  async photoUrl(sha256: string, mediaType: string): Promise<string> {
+    const bytes = await (await this.ready()).photoBytes(sha256);
+    return bytes ? URL.createObjectURL(new Blob([bytes], { type: mediaType })) : `/api/uploads/${sha256}`;
   }
 
   createRecord(kind: RecordKind, competitionId: string, area: Area, fields: Record<string, unknown>): Promise<WriteResult> {

@@ -7,6 +7,7 @@ const kindNames: Record<RecordKind, { one: string; many: string }> = {
   'start-check': { one: 'start check', many: 'start checks' },
   measurement: { one: 'measurement', many: 'measurements' },
   violation: { one: 'violation', many: 'violations' },
+  photo: { one: 'photo', many: 'photos' },
 };
 
 const actionWords: Record<SyncOp['action'], string> = {
@@ -64,6 +65,10 @@ function fieldSummary(kind: RecordKind, fields: Record<string, unknown>): string
     case 'violation':
       add('rule', text('rule'));
       add('decision', text('decision'));
+      break;
+    case 'photo':
+      add('', text('purpose'));
+      add('', text('caption'));
       break;
   }
   return parts.join(', ');

@@ -13,6 +13,8 @@ const status = (change: Partial<SyncStatus> = {}): SyncStatus => ({
   lastError: null,
   clockOffsetMs: 0,
   clockWarning: null,
+  photosWaiting: 0,
+  photoError: null,
   ...change,
 });
 const texts = (s: SyncStatus) => stripItems(s, at).map((item) => item.text);
@@ -50,6 +52,13 @@ describe('status strip words', () => {
       ['⚠', '1 record refused by the server'],
       ['⚠', 'Last sync failed: tap for why'],
     ]);
+  });
+
+  it('when photos wait for the signal, then they are counted; when one was refused, it asks for a look', () => {
+    expect(texts(status({ online: false, photosWaiting: 2, photoError: 'The server cannot be reached from here.' }))).toContain('2 photos to upload');
+    const refused = stripItems(status({ photosWaiting: 1, photoError: 'This file is not the JPEG photo it was sent as, so it was not kept.' }), at);
+    expect(refused.find((i) => i.key === 'photos')).toEqual({ key: 'photos', mark: '⚠', text: '1 photo to upload: tap for why', attention: true });
+    expect(texts(status()).some((text) => text.includes('photo'))).toBe(false);
   });
 
   it('when the device clock is more than 2 minutes off, then it says by how much and which way; at 2 minutes it says nothing', () => {

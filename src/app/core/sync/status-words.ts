@@ -3,7 +3,7 @@ import type { SyncStatus } from '../device-store/sync-engine';
 
 /** One part of the status strip: a mark and words, so nothing depends on colour. */
 export interface StripItem {
-  key: 'online' | 'waiting' | 'synced' | 'conflicts' | 'refused' | 'failed' | 'clock';
+  key: 'online' | 'waiting' | 'photos' | 'synced' | 'conflicts' | 'refused' | 'failed' | 'clock';
   mark: string;
   text: string;
   /** Needs the official's attention: drawn boxed and bold, besides its words. */
@@ -20,6 +20,11 @@ export function stripItems(status: SyncStatus, nowMs: number): StripItem[] {
       ? { key: 'waiting', mark: '✓', text: 'Nothing waiting to send', attention: false }
       : { key: 'waiting', mark: '↑', text: `${plural(status.pendingCount, 'record', 'records')} only on this device`, attention: false },
   );
+  if (status.photosWaiting > 0) {
+    // A file that failed for a reason other than the signal needs a look; waiting for the signal does not.
+    const stuck = status.photoError !== null && status.online !== false;
+    items.push({ key: 'photos', mark: stuck ? '⚠' : '↑', text: `${plural(status.photosWaiting, 'photo', 'photos')} to upload${stuck ? ': tap for why' : ''}`, attention: stuck });
+  }
   items.push({ key: 'synced', mark: '↻', text: status.syncing ? 'Syncing now…' : syncedWords(status.lastSyncAt, nowMs), attention: false });
   if (status.openConflicts > 0) {
     items.push({ key: 'conflicts', mark: '⚠', text: plural(status.openConflicts, 'conflict waiting', 'conflicts waiting'), attention: true });

@@ -1,11 +1,14 @@
+import { sha256 as sha256Of } from '@noble/hashes/sha2.js';
+import { bytesToHex } from '@noble/hashes/utils.js';
 import { v4 as uuidv4 } from 'uuid';
 import { appendOnlyKinds, recordFieldSchemas, type RecordKind } from '../../../../../shared/sync/record-kinds';
 import { syncOpSchema, type OpResult, type PullResponse, type PushResponse, type SyncChange, type SyncConflict, type SyncOp, type SyncRecord } from '../../../../../shared/sync/sync-api';
 import { sameJson } from '../same-json';
 import { SyncTransportError, type SyncTransport } from '../sync-transport';
+import type { UploadTransport } from '../upload-photos';
 
 type Outcome = Pick<OpResult, 'status' | 'reason' | 'conflictIds'>;
-type Call = 'heartbeat' | 'push' | 'pull';
+type Call = 'heartbeat' | 'push' | 'pull' | 'has-file' | 'put-file';
 
 /**
  * An in-memory server that keeps the sync contract (shared/sync/sync-api.ts) the way server/sync does,
@@ -35,6 +38,26 @@ export class FakeSyncServer {
   loseNextPushAnswer = false;
   /** Return a reason to reject an op (e.g. the official lost their assignment). */
   refuse: (op: SyncOp) => string | null = () => null;
+
+  /** Uploaded files by SHA-256, as /api/uploads keeps them. */
+  readonly files = new Map<string, { mediaType: string; data: Uint8Array }>();
+  /** Return a reason to refuse a file (e.g. it is not the kind it says). */
+  refuseFile: (sha256: string) => string | null = () => null;
+
+  uploads(): UploadTransport {
+    return {
+      hasFile: async (sha256) => this.call('has-file', () => this.files.has(sha256)),
+      putFile: async (sha256, mediaType, data) => {
+        await this.call('put-file', () => {
+          const bytes = new Uint8Array(data.slice(0));
+          const refused = this.refuseFile(sha256) ?? (bytesToHex(sha256Of(bytes)) === sha256 ? null : 'The file arrived damaged.');
+          if (refused) throw new SyncTransportError('refused', refused, 415);
+          this.files.set(sha256, { mediaType, data: bytes });
+          return null;
+        });
+      },
+    };
+  }
 
   transport(): SyncTransport {
     return {

@@ -59,6 +59,7 @@ export function provideTestDeviceStore(server: FakeSyncServer, storage: FakeBrow
           return db;
         },
         transport: server.transport(),
+        uploads: server.uploads(),
         now: () => Date.now(),
         engine: { intervalMs: 60 * 60_000, online$: NEVER, lock: <T>(round: () => Promise<T>) => round() },
       },

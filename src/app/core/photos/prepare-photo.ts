@@ -1,0 +1,47 @@
+import type { PhotoFileInput } from '../device-store/record-writer';
+import { RecordRefusedError } from '../device-store/store-errors';
+import { fitWithin, photoJpegQuality } from './photo-size';
+
+/**
+ * Makes a file ready to keep on the device: a picture is decoded, turned upright, scaled to 1600 px on
+ * its long edge and saved again as JPEG (which also drops its location data); a PDF certificate is kept
+ * as it is. Runs in the browser (createImageBitmap and a canvas).
+ */
+export async function preparePhoto(file: Blob): Promise<PhotoFileInput> {
+  if (file.type === 'application/pdf') {
+    return { mediaType: 'application/pdf', data: await file.arrayBuffer(), width: null, height: null };
+  }
+  let bitmap: ImageBitmap;
+  try {
+    bitmap = await createImageBitmap(file, { imageOrientation: 'from-image' });
+  } catch {
+    throw new RecordRefusedError('This file is not a photo this device can open. Take the photo again, or choose a JPEG or PNG.');
+  }
+  try {
+    const size = fitWithin(bitmap.width, bitmap.height);
+    const jpeg = await drawAsJpeg(bitmap, size.width, size.height);
+    return { mediaType: 'image/jpeg', data: await jpeg.arrayBuffer(), ...size };
+  } finally {
+    bitmap.close();
+  }
+}
+
+async function drawAsJpeg(bitmap: ImageBitmap, width: number, height: number): Promise<Blob> {
+  if (typeof OffscreenCanvas !== 'undefined') {
+    const canvas = new OffscreenCanvas(width, height);
+    draw(canvas.getContext('2d'), bitmap, width, height);
+    return canvas.convertToBlob({ type: 'image/jpeg', quality: photoJpegQuality });
+  }
+  const canvas = document.createElement('canvas');
+  canvas.width = width;
+  canvas.height = height;
+  draw(canvas.getContext('2d'), bitmap, width, height);
+  return new Promise((resolve, reject) =>
+    canvas.toBlob((blob) => (blob ? resolve(blob) : reject(new RecordRefusedError('This device could not save the photo. Try again.'))), 'image/jpeg', photoJpegQuality),
+  );
+}
+
+function draw(context: OffscreenCanvasRenderingContext2D | CanvasRenderingContext2D | null, bitmap: ImageBitmap, width: number, height: number): void {
+  if (!context) throw new RecordRefusedError('This device could not save the photo (no drawing surface). Try again.');
+  context.drawImage(bitmap, 0, 0, width, height);
+}
