@@ -2,6 +2,7 @@ import { ChangeDetectionStrategy, Component, computed, inject, signal } from '@a
 import { MatButtonModule } from '@angular/material/button';
 import { Router, RouterLink } from '@angular/router';
 import { describeLoadError } from '../core/describe-load-error';
+import { DeviceStore } from '../core/sync/device-store';
 import { AuthStore } from './auth-store';
 import { DeviceUsers } from './device-users';
 import { rolesInWords } from './role-words';
@@ -24,6 +25,7 @@ export class UserBar {
   private readonly deviceUsers = inject(DeviceUsers);
   private readonly router = inject(Router);
   private readonly isOffline = inject(ServerReachability).isOffline;
+  private readonly deviceStore = inject(DeviceStore);
 
   protected readonly user = this.auth.user;
   protected readonly rolesText = computed(() => rolesInWords(this.auth.roles()));
@@ -34,6 +36,19 @@ export class UserBar {
     if (this.auth.isHandOverPending()) return 'after the server has caught up';
     return null;
   });
+  /**
+   * What signing out means for the records still waiting on this device, or null when none wait.
+   * Signing out never deletes them: the outbox keeps them until someone signs in and they are sent.
+   */
+  protected readonly unsentWarning = computed(() => {
+    if (this.deviceStore.dbState() === 'failed') return null;
+    const pending = this.deviceStore.pendingCount();
+    if (pending === null) return 'Checking whether records on this device still wait to be sent…';
+    if (pending === 0) return null;
+    const records = pending === 1 ? '1 record is' : `${pending} records are`;
+    return `${records} only on this device. They stay here and are sent when someone signs in again — sync first if you can.`;
+  });
+  protected readonly hasUnsent = computed(() => (this.deviceStore.pendingCount() ?? 0) > 0);
   protected readonly isSignOutOpen = signal(false);
   protected readonly busy = signal(false);
   protected readonly problem = signal<string | null>(null);

@@ -1,8 +1,11 @@
 // First: Dexie reads the global indexedDB once when it loads (each store still gets its own factory).
 import 'fake-indexeddb/auto';
+import { HttpTestingController } from '@angular/common/http/testing';
 import { TestBed } from '@angular/core/testing';
+import { AuthStore } from '../auth/auth-store';
 import { firstOfficial } from '../auth/testing/auth-fixtures';
 import { exportBackup } from '../core/device-store/backup';
+import type { DeviceDb } from '../core/device-store/device-db';
 import { createRecordWriter } from '../core/device-store/record-writer';
 import { FakeSyncServer } from '../core/device-store/testing/fake-sync-server';
 import { competitionId, measurement, openTestDevice, otherOfficial, startCheck } from '../core/device-store/testing/test-device';
@@ -22,10 +25,11 @@ class SavedFiles {
 async function setUp({ server = new FakeSyncServer(), storage = new FakeBrowserStorage() } = {}) {
   localStorage.clear();
   const saved = new SavedFiles();
+  let opened: DeviceDb | null = null;
   TestBed.configureTestingModule({
     providers: [
       ...appTestProviders(blankRoutes('', 'sync')),
-      ...provideTestDeviceStore(server, storage),
+      ...provideTestDeviceStore(server, storage, (db) => (opened = db)),
       { provide: FileDownload, useValue: saved },
     ],
   });
@@ -44,7 +48,12 @@ async function setUp({ server = new FakeSyncServer(), storage = new FakeBrowserS
     if (button.disabled) throw new Error(`Button "${label}" is disabled`);
     button.click();
   };
-  return { server, storage, store, saved, fixture, element, text, press };
+  const buttonLabels = () => {
+    fixture.detectChanges();
+    return [...element.querySelectorAll<HTMLButtonElement>('button')].map((b) => b.textContent?.replace(/\s+/g, ' ').trim() ?? '');
+  };
+  const db = () => opened!;
+  return { server, storage, store, saved, fixture, element, text, press, buttonLabels, db };
 }
 
 describe('SyncPage', () => {
@@ -150,5 +159,82 @@ describe('SyncPage', () => {
     storage.grants = true;
     press('Ask the browser to keep the records');
     await until(() => text('[data-section="persistence"]').includes('kept safe by the browser'), 'the grant shows');
+  });
+
+  describe('putting a refusal away', () => {
+    /** Two start checks the server refused (bibs 7 and 8), shown on the page. */
+    async function withTwoRefusals() {
+      const server = new FakeSyncServer();
+      server.refuse = (op) => (op.recordKind === 'start-check' ? 'You are no longer assigned to the start area of this race.' : null);
+      const page = await setUp({ server });
+      const seven = await page.store.createRecord('start-check', competitionId, 'start', startCheck(7));
+      await page.store.createRecord('start-check', competitionId, 'start', startCheck(8));
+      await page.store.syncNow();
+      const refusals = () => {
+        page.fixture.detectChanges();
+        return [...page.element.querySelectorAll('[data-section="refusal"] > strong')].map((strong) => strong.textContent?.trim() ?? '');
+      };
+      await until(() => refusals().length === 2, 'both refusals show');
+      const putAwayLabel = (bib: number) => {
+        const label = page.buttonLabels().find((text) => text.startsWith('Put away:') && text.includes(`bib ${bib}`));
+        if (!label) throw new Error(`No "Put away" button for bib ${bib}`);
+        return label;
+      };
+      return { ...page, refusals, putAwayLabel, sevenOpId: seven.op!.opId };
+    }
+
+    it('when "Put away" is pressed, then it asks first in words, and "No, keep it in the list" changes nothing', async () => {
+      const { press, text, refusals, putAwayLabel, db, sevenOpId } = await withTwoRefusals();
+      expect(putAwayLabel(7)).toContain('Start check (new): run 1, bib 7');
+
+      press(putAwayLabel(7));
+
+      expect(text('[data-section="put-away-question"] p')).toBe(
+        'Have you entered these values again the right way? Putting this away keeps it on the device but hides it.',
+      );
+      // The harmless answer has the focus, so a second tap or Enter does not put it away.
+      expect(document.activeElement?.textContent?.trim()).toBe('No, keep it in the list');
+      expect((await db().rejections.get(sevenOpId))?.dismissed ?? null).toBeNull();
+
+      press('No, keep it in the list');
+
+      expect(text('[data-section="put-away-question"]')).toBe('');
+      expect(refusals()).toHaveLength(2);
+      expect((await db().rejections.get(sevenOpId))?.dismissed ?? null).toBeNull();
+    });
+
+    it('when the official confirms, then that refusal leaves the list and stays on the device with who put it away and when', async () => {
+      const { press, text, refusals, putAwayLabel, db, sevenOpId } = await withTwoRefusals();
+      const before = Date.now();
+
+      press(putAwayLabel(7));
+      press('Yes, put it away');
+
+      await until(() => refusals().length === 1, 'the refusal leaves the list');
+      expect(refusals()[0]).toContain('bib 8');
+      expect(text('[data-section="put-away"]')).toMatch(/^Put away: Start check \(new\): run 1, bib 7.*Its values stay on this device\.$/);
+      const kept = await db().rejections.get(sevenOpId);
+      expect(kept?.op.fields['bib']).toBe(7);
+      expect(kept?.reason).toBe('You are no longer assigned to the start area of this race.');
+      expect(kept?.dismissed?.userId).toBe(firstOfficial.user.id);
+      expect(Math.abs(Date.parse(kept!.dismissed!.at) - before)).toBeLessThan(5_000);
+    });
+
+    it('when putting away fails (no official signed in any more), then the page says so in words and the refusal stays', async () => {
+      const { press, text, refusals, putAwayLabel, db, sevenOpId } = await withTwoRefusals();
+      press(putAwayLabel(7));
+      const signedOut = TestBed.inject(AuthStore).signOut();
+      TestBed.inject(HttpTestingController).expectOne('/api/auth/sign-out').flush(null);
+      await signedOut;
+
+      press('Yes, put it away');
+
+      await until(() => text('[data-section="put-away-problem"]') !== '', 'the problem shows');
+      expect(text('[data-section="put-away-problem"]')).toBe('⚠ Not put away. Sign in first: putting a refusal away says who did it.');
+      expect(refusals()).toHaveLength(2);
+      expect((await db().rejections.get(sevenOpId))?.dismissed ?? null).toBeNull();
+      // The question stays open, so it can be tried again after signing in.
+      expect(text('[data-section="put-away-question"]')).toContain('Have you entered these values again');
+    });
   });
 });

@@ -1,5 +1,5 @@
 import { DatePipe } from '@angular/common';
-import { ChangeDetectionStrategy, Component, computed, inject, signal, type WritableSignal } from '@angular/core';
+import { ChangeDetectionStrategy, Component, ElementRef, computed, effect, inject, signal, viewChild, type WritableSignal } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
 import { AuthStore } from '../auth/auth-store';
 import { DeviceUsers } from '../auth/device-users';
@@ -38,6 +38,12 @@ export class SyncPage {
   protected readonly busy = signal<'sync' | 'export' | 'import' | null>(null);
   protected readonly syncMessage = signal<string | null>(null);
   protected readonly backupMessage = signal<string | null>(null);
+  /** The refusal whose "Put away" asks for confirmation now (op id). */
+  protected readonly confirmingPutAway = signal<string | null>(null);
+  protected readonly puttingAway = signal<string | null>(null);
+  protected readonly putAwayProblem = signal<{ opId: string; message: string } | null>(null);
+  protected readonly putAwayMessage = signal<string | null>(null);
+  private readonly keepButton = viewChild('keepInList', { read: ElementRef<HTMLButtonElement> });
 
   protected readonly onlineWords = computed(() => {
     const online = this.status()?.online ?? null;
@@ -63,6 +69,31 @@ export class SyncPage {
     if (!numbers || fraction === null) return 'This browser does not say how full its storage is.';
     return `${bytes(numbers.usage)} of ${bytes(numbers.quota)} used (${Math.round(fraction * 100)} %).`;
   });
+
+  constructor() {
+    // The "Put away" button gives way to the question; focus goes to the harmless answer.
+    effect(() => this.keepButton()?.nativeElement.focus());
+  }
+
+  protected askToPutAway(opId: string): void {
+    this.putAwayProblem.set(null);
+    this.putAwayMessage.set(null);
+    this.confirmingPutAway.set(opId);
+  }
+
+  protected async putAway(refusal: { opId: string; what: string }): Promise<void> {
+    this.puttingAway.set(refusal.opId);
+    this.putAwayProblem.set(null);
+    try {
+      await this.store.dismissRejection(refusal.opId);
+      this.confirmingPutAway.set(null);
+      this.putAwayMessage.set(`Put away: ${refusal.what}. Its values stay on this device.`);
+    } catch (error) {
+      this.putAwayProblem.set({ opId: refusal.opId, message: error instanceof Error ? error.message : String(error) });
+    } finally {
+      this.puttingAway.set(null);
+    }
+  }
 
   protected async syncNow(): Promise<void> {
     await this.run('sync', this.syncMessage, async () => roundWords(await this.store.syncNow()));

@@ -4,7 +4,10 @@ import { RouterLink } from '@angular/router';
 import { AppUpdate } from './app-update';
 import { DeviceStore } from './device-store';
 
-/** "A new version is ready": the button reloads only when nothing is at risk, and says why it waits. */
+/**
+ * "A new version is ready" or "the app is damaged": the button reloads only when nothing is at risk,
+ * and says why it waits.
+ */
 @Component({
   selector: 'rl-update-prompt',
   host: { class: 'rl-notice-strip' },
@@ -18,6 +21,24 @@ import { DeviceStore } from './device-store';
           already saved stay on this device.
         </p>
         <button mat-flat-button type="button" class="primary-action" (click)="update.reloadForNewerTab()">Reload</button>
+      </section>
+    } @else if (update.damageReason(); as reason) {
+      <section class="rl-notice prompt" role="alert" data-notice="damaged">
+        <p>
+          <strong>⚠ The app on this device is damaged:</strong> the browser has lost some of its files. The records on
+          this device are safe in its storage. Reload the app when there is a signal.
+        </p>
+        <div class="actions">
+          @if (update.damagedWaitReason(); as wait) {
+            <button mat-flat-button type="button" class="primary-action waiting" disabled>Reload waits: {{ wait }}</button>
+            @if ((store.pendingCount() ?? 0) > 0) {
+              <a mat-stroked-button routerLink="/sync">Export a backup first</a>
+            }
+          } @else {
+            <button mat-flat-button type="button" class="primary-action" (click)="update.reloadDamaged()">Reload the app</button>
+          }
+        </div>
+        <p class="detail">For whoever looks after the devices: {{ reason }}</p>
       </section>
     } @else if (update.isReady()) {
       <section class="rl-notice prompt" role="status">
@@ -39,6 +60,11 @@ import { DeviceStore } from './device-store';
     @use '@angular/material' as mat;
     .prompt p {
       margin: 0 0 12px;
+    }
+    .prompt .detail {
+      margin: 12px 0 0;
+      font-size: 1rem;
+      overflow-wrap: anywhere;
     }
     .actions {
       display: flex;
