@@ -62,6 +62,8 @@ export function createApp({
         directives: {
           // Served over plain HTTP on loopback; TLS, when there is any, is added by a proxy in front.
           upgradeInsecureRequests: null,
+          // Photos still on the device are shown from blob: addresses made of their stored bytes.
+          imgSrc: ["'self'", 'data:', 'blob:'],
         },
       },
     }),

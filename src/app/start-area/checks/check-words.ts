@@ -1,0 +1,44 @@
+import type { LocalRecord } from '../../core/device-store/device-db';
+
+export type CheckStatus = 'in-progress' | 'cleared' | 'referred' | 'violation' | 'withdrawn';
+
+/** The result of a check in words, with a mark so it never rests on colour. */
+export const checkStatusWords: Record<CheckStatus, string> = {
+  'in-progress': '… Check under way',
+  cleared: '✓ Cleared to start',
+  referred: '⚑ Referred to the technical delegate',
+  violation: '⚠ Violation reported',
+  withdrawn: '✕ Withdrawn',
+};
+
+export interface CheckRow {
+  id: string;
+  run: number;
+  bib: number;
+  status: CheckStatus;
+  beganAt: string;
+  note: string;
+  /** The server has not confirmed this check's latest change yet. */
+  onlyHere: boolean;
+}
+
+export function checkRowOf(record: LocalRecord): CheckRow {
+  const f = record.fields;
+  return {
+    id: record.id,
+    run: Number(f['run']),
+    bib: Number(f['bib']),
+    status: f['status'] as CheckStatus,
+    beganAt: String(f['beganAt']),
+    note: typeof f['note'] === 'string' ? f['note'] : '',
+    onlyHere: record.version === null,
+  };
+}
+
+/** Checks newest first; removed ones are left out. */
+export function checkRows(records: readonly LocalRecord[]): CheckRow[] {
+  return records
+    .filter((record) => !record.deleted)
+    .map(checkRowOf)
+    .sort((a, b) => b.beganAt.localeCompare(a.beganAt));
+}
