@@ -99,6 +99,20 @@ describe('SyncPage', () => {
     expect(refusal).toContain('by First Official');
   });
 
+  it('when a photo file is refused, then the page counts it as waiting and says why in words; the records went anyway', async () => {
+    const server = new FakeSyncServer();
+    server.refuseFile = () => 'This file is not the PDF document it was sent as, so it was not kept.';
+    const { store, text } = await setUp({ server });
+    const { record } = await store.createRecord('start-check', competitionId, 'start', startCheck(8));
+    await store.attachPhoto(record.id, new Blob(['%PDF-1.7'], { type: 'application/pdf' }), 'certificate');
+    await store.syncNow();
+
+    await until(() => text('[data-section="photo-error"]') !== '', 'the photo problem shows');
+    expect(text('[data-section="photos"]')).toContain('1 photo file waits to upload');
+    expect(text('[data-section="photo-error"]')).toContain('This file is not the PDF document it was sent as, so it was not kept.');
+    expect(server.records.size).toBe(2);
+  });
+
   it('when "Export backup" is pressed, then a file named by this device and the time holds the waiting changes', async () => {
     const server = new FakeSyncServer();
     server.outage = 'unreachable';
