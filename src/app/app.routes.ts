@@ -15,6 +15,24 @@ export const routes: Routes = [
     loadComponent: () => import('./rules/rules-page').then((m) => m.RulesPage),
   },
   {
+    path: 'competitions/:id/start/control-steel',
+    title: 'Control steel · Rimelog',
+    canActivate: [competitionRoleGuard],
+    loadComponent: () => import('./start-area/control-steel/control-steel-page').then((m) => m.ControlSteelPage),
+  },
+  {
+    path: 'competitions/:id/start/checks',
+    title: 'Start checks · Rimelog',
+    canActivate: [competitionRoleGuard],
+    loadComponent: () => import('./start-area/checks/start-checks-page').then((m) => m.StartChecksPage),
+  },
+  {
+    path: 'competitions/:id/start/checks/:checkId',
+    title: 'Start check · Rimelog',
+    canActivate: [competitionRoleGuard],
+    loadComponent: () => import('./start-area/checks/start-check-page').then((m) => m.StartCheckPage),
+  },
+  {
     path: 'sign-in',
     title: 'Sign in · Rimelog',
     loadComponent: () => import('./auth/sign-in-page').then((m) => m.SignInPage),

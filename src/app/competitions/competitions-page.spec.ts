@@ -6,7 +6,10 @@ import { provideRouter } from '@angular/router';
 import { TestbedHarnessEnvironment } from '@angular/cdk/testing/testbed';
 import { MatButtonHarness } from '@angular/material/button/testing';
 import { MatTableHarness } from '@angular/material/table/testing';
+import type { Me } from '../../../shared/auth/auth-api';
 import type { CompetitionList } from '../../../shared/competition/competition';
+import { AuthStore } from '../auth/auth-store';
+import { firstOfficial, raceId } from '../auth/testing/auth-fixtures';
 import { CompetitionsPage } from './competitions-page';
 
 const twoRaces: CompetitionList = {
@@ -32,10 +35,11 @@ const twoRaces: CompetitionList = {
   ],
 };
 
-async function setUp() {
+async function setUp(me: Me | null = null) {
   TestBed.configureTestingModule({
     providers: [provideZonelessChangeDetection(), provideHttpClient(), provideHttpClientTesting(), provideRouter([])],
   });
+  if (me) TestBed.inject(AuthStore).adoptSession(me);
   const fixture = TestBed.createComponent(CompetitionsPage);
   const http = TestBed.inject(HttpTestingController);
   const harnesses = TestbedHarnessEnvironment.loader(fixture);
@@ -59,6 +63,19 @@ describe('CompetitionsPage', () => {
     expect(rows['firstRunOn']?.text).toEqual(['9 Jan 2027', '6 Feb 2027']);
     expect(rows['status']?.text).toEqual(['Open', 'Planned']);
     expect(rows['rules']?.text).toEqual(['Rules', 'Not open yet']);
+  });
+
+  it('when the official holds a role in an open competition, then its start-area screens are one tap away; elsewhere a dash', async () => {
+    localStorage.clear();
+    const { fixture, http, harnesses } = await setUp(firstOfficial);
+    http.expectOne('/api/competitions').flush(twoRaces);
+    await fixture.whenStable();
+
+    const rows = await (await harnesses.getHarness(MatTableHarness)).getCellTextByColumnName();
+    expect(rows['start']?.text).toEqual(['Control steelStart checks', '—']);
+    const links = [...(fixture.nativeElement as HTMLElement).querySelectorAll<HTMLAnchorElement>('.start-links a')].map((a) => a.getAttribute('href'));
+    expect(links).toEqual([`/competitions/${raceId}/start/control-steel`, `/competitions/${raceId}/start/checks`]);
+    localStorage.clear();
   });
 
   it('when the server cannot be reached, then the official is told so and can refresh', async () => {

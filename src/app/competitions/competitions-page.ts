@@ -1,9 +1,10 @@
 import { DatePipe } from '@angular/common';
-import { ChangeDetectionStrategy, Component, computed } from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, inject } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
 import { MatTableModule } from '@angular/material/table';
 import { RouterLink } from '@angular/router';
 import { trackTypeLabel, type CompetitionSummary } from '../../../shared/competition/competition';
+import { AuthStore } from '../auth/auth-store';
 import { describeLoadError } from '../core/describe-load-error';
 import { competitionListResource } from './competitions-api';
 
@@ -23,7 +24,8 @@ const statusLabels: Record<CompetitionSummary['status'], string> = {
 })
 export class CompetitionsPage {
   protected readonly list = competitionListResource();
-  protected readonly columns = ['name', 'trackType', 'level', 'venue', 'firstRunOn', 'status', 'rules'];
+  protected readonly auth = inject(AuthStore);
+  protected readonly columns = ['name', 'trackType', 'level', 'venue', 'firstRunOn', 'status', 'rules', 'start'];
   protected readonly competitions = computed(() =>
     this.list.hasValue() ? this.list.value().competitions : [],
   );
