@@ -111,6 +111,8 @@ describe('glove-first targets (WCAG 2.2 SC 2.5.5: at least 44 x 44 CSS px; ours:
     ['/switch-official', 'Who is using this device?'],
     ['/set-pin', 'Choose your PIN'],
     ['/sync', 'Sync'],
+    ['/competitions/0193a5c0-0000-7000-8000-000000000001/start/control-steel', 'Control steel'],
+    ['/competitions/0193a5c0-0000-7000-8000-000000000001/start/checks', 'Start checks'],
   ])('when a signed-in official opens %s, then every button on it is glove-sized and apart', async (path, heading) => {
     const page = await signedInPage('start-official@frostbarrow.test');
     await page.goto(`${fixture.server.url}${path}`);
