@@ -25,7 +25,7 @@ export interface RunningRimelog {
  * real one) and listens; the caller owns the returned handle.
  */
 export async function serve(config: ServerConfig, databaseUrl: string, logger: Logger): Promise<RunningRimelog> {
-  const database = connectDatabase(databaseUrl);
+  const database = connectDatabase(databaseUrl, (error) => logger.warn({ err: error }, 'an idle database connection ended; the next query opens a new one'));
   let fakeMail: FakeMailServer | undefined;
   let mailer: Mailer | undefined;
   const closeMail = async () => {
