@@ -1,6 +1,7 @@
 import { ChangeDetectionStrategy, Component, inject } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
-import { RouterOutlet } from '@angular/router';
+import { NavigationEnd, Router, RouterOutlet } from '@angular/router';
+import { filter, take } from 'rxjs';
 import { AuthNotices } from './auth/auth-notices';
 import { UserBar } from './auth/user-bar';
 import { OfflineReadiness } from './core/offline-readiness';
@@ -8,6 +9,7 @@ import { StorageBanner } from './core/sync/storage-banner';
 import { SyncStatusStrip } from './core/sync/sync-status-strip';
 import { UpdatePrompt } from './core/sync/update-prompt';
 import { ThemePreference } from './core/theme-preference';
+import { LastScreen } from './start-area/last-screen';
 import { FieldCautions } from './ui/field-cautions';
 import { OfflineBadge } from './ui/offline-badge';
 
@@ -21,4 +23,15 @@ import { OfflineBadge } from './ui/offline-badge';
 export class App {
   protected readonly offline = inject(OfflineReadiness);
   protected readonly themes = inject(ThemePreference);
+
+  constructor() {
+    // After the first navigation: reopen the entry screen the app was killed on, if any.
+    const lastScreen = inject(LastScreen);
+    inject(Router)
+      .events.pipe(
+        filter((event) => event instanceof NavigationEnd),
+        take(1),
+      )
+      .subscribe(() => void lastScreen.restoreAtStart());
+  }
 }

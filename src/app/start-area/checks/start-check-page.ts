@@ -7,6 +7,8 @@ import { switchMap } from 'rxjs';
 import type { LocalRecord } from '../../core/device-store/device-db';
 import { DeviceStore } from '../../core/sync/device-store';
 import { FieldCautions } from '../../ui/field-cautions';
+import { LastScreen } from '../last-screen';
+import { keepScreenAwake } from '../screen-awake';
 import { checkRowOf, checkStatusWords, type CheckStatus } from './check-words';
 import { CheckPhotos } from './check-photos';
 
@@ -43,8 +45,11 @@ export class StartCheckPage {
   readonly problem = signal<string | null>(null);
   readonly busy = signal(false);
 
+  readonly screenAwake = keepScreenAwake();
+
   constructor() {
     this.countOpenCheck();
+    inject(LastScreen).rememberWhileShown();
   }
 
   async saveNote(note: string): Promise<void> {

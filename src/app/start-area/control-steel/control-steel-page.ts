@@ -19,6 +19,8 @@ import { controlLog, currentReadings, type ControlLogEntry } from './control-log
 import { CONTROL_STEEL_CLOCK } from './control-steel-clock';
 import { instrumentProblem, keepInstrument, keepRules, readKeptInstrument, readKeptRules } from './control-steel-memory';
 import { countdownWords, type CountdownWords } from './countdown-words';
+import { LastScreen } from '../last-screen';
+import { keepScreenAwake } from '../screen-awake';
 
 /** The control steel is read to 0.1 °C within this range (shade at a start area in winter). */
 export const controlReadingRange = { minTenths: -400, maxTenths: 200 } as const;
@@ -107,7 +109,10 @@ export class ControlSteelPage {
   protected readonly correctionMessage = signal<string | null>(null);
   private readonly reasonInput = viewChild<ElementRef<HTMLInputElement>>('reasonInput');
 
+  protected readonly screenAwake = keepScreenAwake();
+
   constructor() {
+    inject(LastScreen).rememberWhileShown();
     effect(() => {
       if (this.rules.hasValue()) keepRules(this.rules.value());
     });
