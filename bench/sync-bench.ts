@@ -95,12 +95,12 @@ async function insertFloor({ db, pool }: DatabaseHandle, recordIds: string[]): P
     await pool.query('truncate sync_records_floor');
     const started = performance.now();
     await pool.query(
-      `insert into sync_records_floor (id, kind, competition_id, area, fields, field_sources, created_by, device_id, hlc, natural_key, deleted, version, change_seq)
+      `insert into sync_records_floor (id, kind, competition_id, area, fields, field_sources, created_by, device_id, hlc, created_op_id, natural_key, deleted, version, change_seq)
        select * from unnest($1::uuid[], $2::text[], $3::uuid[], $4::area[], ${elements('$5')}, ${elements('$6')},
-         $7::text[], $8::uuid[], $9::text[], $10::text[], $11::boolean[], $12::int[], $13::bigint[])`,
+         $7::text[], $8::uuid[], $9::text[], $10::uuid[], $11::text[], $12::boolean[], $13::int[], $14::bigint[])`,
       [
         column('id'), column('kind'), column('competitionId'), column('area'), json('fields'), json('fieldSources'), column('createdBy'),
-        column('deviceId'), column('hlc'), column('naturalKey'), column('deleted'), column('version'), column('changeSeq'),
+        column('deviceId'), column('hlc'), column('createdOpId'), column('naturalKey'), column('deleted'), column('version'), column('changeSeq'),
       ],
     );
     timings.push(performance.now() - started);

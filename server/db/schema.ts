@@ -1,3 +1,4 @@
+import { sql } from 'drizzle-orm';
 import { bigint, boolean, date, index, integer, jsonb, pgEnum, pgTable, primaryKey, text, timestamp, unique, uuid } from 'drizzle-orm/pg-core';
 import { areas, roles, type RoleAssignment } from '../../shared/auth/roles';
 import {
@@ -132,11 +133,17 @@ export const syncRecords = pgTable(
       .references(() => competitions.id, { onDelete: 'cascade' }),
     area: area('area').notNull(),
     fields: jsonb('fields').$type<Record<string, ConflictSide['value']>>().notNull(),
-    /** Who last set each field, and with which op: what a conflict shows as "kept". */
+    /**
+     * Who last set each field, and with which op: what a conflict shows as "kept". Only fields set after
+     * the record was made are listed; any other field was set by the creating op (created_by, device_id,
+     * hlc, created_op_id). Rows from before created_op_id list every field.
+     */
     fieldSources: jsonb('field_sources').$type<Record<string, FieldSource>>().notNull(),
     createdBy: text('created_by').notNull(),
     deviceId: uuid('device_id').notNull(),
     hlc: text('hlc').notNull(),
+    /** The op that made the record; null on rows from before it was kept (their field_sources list every field). */
+    createdOpId: uuid('created_op_id'),
     naturalKey: text('natural_key'),
     deleted: boolean('deleted').notNull().default(false),
     version: integer('version').notNull(),
@@ -167,7 +174,15 @@ export const syncConflicts = pgTable(
     settlement: jsonb('settlement').$type<ConflictSettlement>(),
     changeSeq: bigint('change_seq', { mode: 'number' }).notNull(),
   },
-  (table) => [index('sync_conflicts_change_idx').on(table.changeSeq), index('sync_conflicts_record_idx').on(table.recordId)],
+  (table) => [
+    index('sync_conflicts_change_idx').on(table.changeSeq),
+    index('sync_conflicts_record_idx').on(table.recordId),
+    // The late records of open duplicate-record conflicts, which a new start check must not clash with
+    // (server/sync/load-batch-context.ts); without it that lookup reads every conflict ever kept.
+    index('sync_conflicts_open_duplicate_idx')
+      .on(sql`(${table.incoming}->>'value')`)
+      .where(sql`${table.kind} = 'duplicate-record' and ${table.status} = 'open'`),
+  ],
 );
 
 /** The stored answer to every op, so a replayed op gets the same answer (SPEC.md §2). */

@@ -1,20 +1,21 @@
-import { and, asc, eq, inArray, sql } from 'drizzle-orm';
+import { asc, sql } from 'drizzle-orm';
 import { v7 as uuidv7 } from 'uuid';
+import type { ZodSafeParseResult } from 'zod';
 import type { RoleAssignment } from '../../shared/auth/roles';
-import { appendOnlyKinds, naturalKey, recordFieldSchemas, type RecordKind } from '../../shared/sync/record-kinds';
+import { appendOnlyKinds, naturalKey, recordFieldSchemas, recordKinds, type RecordKind } from '../../shared/sync/record-kinds';
 import { syncOpSchema, type ConflictSide, type FieldSource, type OpResult, type SyncOp } from '../../shared/sync/sync-api';
 import type { Database } from '../db/client';
 import { deviceCursors, opReceipts, syncConflicts, syncCounter, syncRecords } from '../db/schema';
-import { refuseOp } from './authorise-op';
-import { insertRows, updateRows } from './bulk-rows';
-import { loadAuthors } from './load-batch-context';
+import { refuseOp, type PushContext } from './authorise-op';
+import { insertRows, updateRows, writeTogether, type Shift } from './bulk-rows';
+import { isAnyOf, loadBatchContext, type StoredOutcome } from './load-batch-context';
 import { mergeFields } from './merge-fields';
 import { hasUnstorableText, maxOpNesting, nestedTooDeep } from './storable-json';
 
 type RecordRow = typeof syncRecords.$inferSelect;
 type ConflictRow = typeof syncConflicts.$inferSelect;
 type Json = ConflictSide['value'];
-type Outcome = Pick<OpResult, 'status' | 'reason' | 'conflictIds'>;
+type Outcome = StoredOutcome;
 
 export interface PushSession {
   userId: string;
@@ -23,6 +24,26 @@ export interface PushSession {
 }
 
 const rejected = (reason: string): Outcome => ({ status: 'rejected', reason, conflictIds: [] });
+
+/**
+ * Runs pure work while the database answers a query already sent, so the two work at once instead of
+ * in turn. The work runs as a promise job: if it throws, the query is still awaited.
+ */
+const meanwhile = <T, U>(query: Promise<T>, work: () => U): Promise<[T, U]> => Promise.all([query, Promise.resolve().then(work)]);
+
+/** The natural keys of the new records, each once and in order (the order the batch locks them in). */
+function naturalKeysOf(ops: readonly SyncOp[]): string[] {
+  const keys = ops.flatMap((op) => {
+    const key = op.action === 'create' ? naturalKey(op.recordKind as RecordKind, op.competitionId, op.fields) : null;
+    return key ? [key] : [];
+  });
+  return [...new Set(keys)].sort();
+}
+
+/** What an edit or a settlement may set, per kind: built once, as building a zod schema costs more than using it. */
+const editSchemas = Object.fromEntries(recordKinds.map((kind) => [kind, recordFieldSchemas[kind].partial().strict()])) as {
+  [K in RecordKind]: ReturnType<(typeof recordFieldSchemas)[K]['partial']>;
+};
 
 /** The op, or why it cannot be read at all: then it gets no receipt, as its id and number cannot be trusted. */
 function readOp(raw: unknown): { op: SyncOp } | { problem: string } {
@@ -57,8 +78,6 @@ export async function pushOps(db: Database, session: PushSession, rawOps: readon
   if (valid.length === 0) return results.sort((a, b) => a.index - b.index);
 
   await db.transaction(async (tx) => {
-    // A push runs a few small queries; JIT compiling them costs more than it saves (measured by bench:sync).
-    await tx.execute(sql`set local jit = off`);
     const batch = new Batch(tx as unknown as Database, session);
     await batch.load(valid.map((v) => v.op));
     for (const { index, op } of valid) results.push({ index, opId: op.opId, ...batch.apply(op) });
@@ -75,16 +94,30 @@ const namesAnotherRecord = (op: SyncOp, record: RecordRow) =>
   record.competitionId !== op.competitionId || record.area !== op.area || record.kind !== op.recordKind;
 const namesAnotherRecordReason = 'This change names another competition, area or kind of record than the record it changes.';
 
+/**
+ * Who last set each field of the record: the ones listed in field_sources, any other field by the op that
+ * made the record. Rows from before created_op_id was kept list every field themselves.
+ */
+function fieldSourcesOf(record: RecordRow): Record<string, FieldSource> {
+  if (!record.createdOpId) return record.fieldSources;
+  const creation: FieldSource = { userId: record.createdBy, deviceId: record.deviceId, opId: record.createdOpId, hlc: record.hlc };
+  return { ...Object.fromEntries(Object.keys(record.fields).map((f) => [f, creation])), ...record.fieldSources };
+}
+
 class Batch {
   private receipts = new Map<string, Outcome>();
   private cursors = new Map<string, number>();
   private records = new Map<string, RecordRow>();
   private byNaturalKey = new Map<string, string>();
   private conflicts = new Map<string, ConflictRow>();
-  private authors!: Awaited<ReturnType<typeof loadAuthors>>;
+  private authors!: PushContext;
+  /** Ops holding text PostgreSQL cannot store: looked for once per op, as it is a walk through all of it. */
+  private unstorable = new Set<SyncOp>();
+  /** Each create's and edit's fields as its kind's schema read them (readFields). */
+  private fieldsRead = new Map<SyncOp, ZodSafeParseResult<Record<string, unknown>>>();
   /** Rows changed by this batch, in the order their change numbers are handed out. */
-  private changedRecords: string[] = [];
-  private changedConflicts: string[] = [];
+  private changedRecords = new Set<string>();
+  private changedConflicts = new Set<string>();
   private newRecords = new Set<string>();
   private newConflicts = new Set<string>();
   private newReceipts: (typeof opReceipts.$inferInsert)[] = [];
@@ -96,44 +129,54 @@ class Batch {
 
   async load(ops: SyncOp[]): Promise<void> {
     const { tx } = this;
-    const opIds = ops.map((op) => op.opId);
-    for (const row of await tx.select().from(opReceipts).where(inArray(opReceipts.opId, opIds))) {
-      this.receipts.set(row.opId, { status: row.status, reason: row.reason, conflictIds: row.conflictIds });
-    }
+    // Each device's cursor, made when new and locked to commit in device order (so two batches never
+    // deadlock): the upsert answers the cursor as the batch that held it last committed it.
     const deviceIds = [...new Set(ops.map((op) => op.deviceId))].sort();
-    await tx.insert(deviceCursors).values(deviceIds.map((deviceId) => ({ deviceId, lastSeq: 0 }))).onConflictDoNothing();
-    const cursorRows = await tx.select().from(deviceCursors).where(inArray(deviceCursors.deviceId, deviceIds)).orderBy(asc(deviceCursors.deviceId)).for('update');
+    const cursorsLocked = tx
+      .insert(deviceCursors)
+      .values(deviceIds.map((deviceId) => ({ deviceId, lastSeq: 0 })))
+      .onConflictDoUpdate({ target: deviceCursors.deviceId, set: { lastSeq: sql`${deviceCursors.lastSeq}` } })
+      .returning()
+      .execute();
+    const [cursorRows, keys] = await meanwhile(cursorsLocked, () => {
+      for (const op of ops) if (hasUnstorableText(op)) this.unstorable.add(op);
+      return naturalKeysOf(ops.filter((op) => !this.unstorable.has(op)));
+    });
     for (const row of cursorRows) this.cursors.set(row.deviceId, row.lastSeq);
+
+    // A push runs a few small queries; JIT compiling them costs more than it saves (measured by bench:sync).
+    // One batch at a time per sled and run (held to commit), so two devices syncing the same check at the
+    // same moment still meet as a duplicate; keys in order, so two batches never deadlock.
+    await tx.execute(sql`select set_config('jit', 'off', true),
+      (select count(pg_advisory_xact_lock(hashtextextended(key, 0))) from unnest(${sql.param(keys)}::text[]) as t(key))`);
 
     const settled = ops.flatMap((op) => (op.settlement ? [op.settlement.conflictId] : []));
     if (settled.length > 0) {
-      const rows = await tx.select().from(syncConflicts).where(inArray(syncConflicts.id, settled)).orderBy(asc(syncConflicts.id)).for('update');
+      const rows = await tx.select().from(syncConflicts).where(isAnyOf(syncConflicts.id, settled, 'uuid')).orderBy(asc(syncConflicts.id)).for('update');
       for (const row of rows) this.conflicts.set(row.id, row);
     }
     // A duplicate-record settlement may tombstone either record of the clash, so both are loaded.
     const clashRecords = [...this.conflicts.values()].flatMap((c) => (c.kind === 'duplicate-record' ? [c.recordId, String(c.incoming.value)] : [c.recordId]));
-    const recordIds = [...new Set([...ops.map((op) => op.recordId), ...clashRecords])].sort();
-    for (const row of await tx.select().from(syncRecords).where(inArray(syncRecords.id, recordIds)).orderBy(asc(syncRecords.id)).for('update')) {
-      this.records.set(row.id, row);
+    const recordIds = [...new Set([...ops.map((op) => op.recordId), ...clashRecords])];
+    // Read after the locks, so it sees every batch that held them before (SPEC.md §2, §5).
+    const [context] = await meanwhile(loadBatchContext(tx, ops, { recordIds, naturalKeys: keys }), () => this.readFields(ops));
+    for (const row of context.records) this.records.set(row.id, row);
+    this.receipts = context.receipts;
+    this.byNaturalKey = context.firstByNaturalKey;
+    const { userId, deviceId, roles } = this.session;
+    this.authors = { ...context, sessionUserId: userId, sessionDeviceId: deviceId, sessionRoles: roles };
+  }
+
+  /**
+   * Each create's and edit's fields read by the schema of the kind it names: they depend on the op alone,
+   * so this runs while the database loads the batch. An edit's kind must be its record's (checked first).
+   */
+  private readFields(ops: readonly SyncOp[]): void {
+    for (const op of ops) {
+      const kind = op.recordKind as RecordKind;
+      if (op.action === 'create') this.fieldsRead.set(op, recordFieldSchemas[kind].safeParse(op.fields));
+      if (op.action === 'update') this.fieldsRead.set(op, editSchemas[kind].safeParse(op.fields));
     }
-    const keys = ops.flatMap((op) => {
-      const key = op.action === 'create' && !hasUnstorableText(op.fields) ? naturalKey(op.recordKind as RecordKind, op.competitionId, op.fields) : null;
-      return key ? [key] : [];
-    });
-    if (keys.length > 0) {
-      // One batch at a time per sled and run (held to commit), so two devices syncing the same check
-      // at the same moment still meet as a duplicate; keys in order, so two batches never deadlock.
-      await tx.execute(sql`select pg_advisory_xact_lock(hashtextextended(key, 0)) from jsonb_array_elements_text(${JSON.stringify([...new Set(keys)].sort())}::jsonb) as t(key)`);
-      const rows = await tx
-        .select({ id: syncRecords.id, naturalKey: syncRecords.naturalKey })
-        .from(syncRecords)
-        .where(and(inArray(syncRecords.naturalKey, keys), eq(syncRecords.deleted, false)))
-        // A later check of the sled clashes with the first one, not with another late one (those are
-        // the incoming side of an open duplicate-record conflict), so a sled's clashes share one record.
-        .orderBy(sql`exists (select 1 from ${syncConflicts} where ${syncConflicts.kind} = 'duplicate-record' and ${syncConflicts.status} = 'open' and ${syncConflicts.incoming}->>'value' = ${syncRecords.id}::text)`, asc(syncRecords.id));
-      for (const row of rows) if (row.naturalKey && !this.byNaturalKey.has(row.naturalKey)) this.byNaturalKey.set(row.naturalKey, row.id);
-    }
-    this.authors = await loadAuthors(tx, ops);
   }
 
   apply(op: SyncOp): Outcome {
@@ -154,11 +197,11 @@ class Batch {
   }
 
   private decide(op: SyncOp): Outcome {
-    if (hasUnstorableText(op)) {
+    if (this.unstorable.has(op)) {
       return rejected('This record holds a character the server cannot store (an invisible control character or half of an emoji); correct the text and save it again.');
     }
     if (!this.authors.displayNames.has(op.userId)) return rejected('This record names an official this server does not know.');
-    const refusal = refuseOp(op, { ...this.authors, sessionUserId: this.session.userId, sessionDeviceId: this.session.deviceId, sessionRoles: this.session.roles });
+    const refusal = refuseOp(op, this.authors);
     if (refusal) return rejected(refusal);
     const source: FieldSource = { userId: op.userId, deviceId: op.deviceId, opId: op.opId, hlc: op.hlc };
     const existing = this.records.get(op.recordId);
@@ -177,7 +220,7 @@ class Batch {
   private create(op: SyncOp, source: FieldSource, existing: RecordRow | undefined): Outcome {
     const kind = op.recordKind as RecordKind;
     if (existing) return { status: 'duplicate', reason: 'This record was already saved on the server.', conflictIds: [] };
-    const parsed = recordFieldSchemas[kind].safeParse(op.fields);
+    const parsed = this.fieldsRead.get(op)!;
     if (!parsed.success) return rejected(`The ${kind.replace('-', ' ')} is not complete: ${parsed.error.issues[0]?.path.join('.')}: ${parsed.error.issues[0]?.message}.`);
     const fields = parsed.data as Record<string, Json>;
     const key = naturalKey(kind, op.competitionId, fields);
@@ -187,10 +230,12 @@ class Batch {
       competitionId: op.competitionId,
       area: op.area,
       fields,
-      fieldSources: Object.fromEntries(Object.keys(fields).map((f) => [f, source])),
+      // Every field's source is the creating op, which the row keeps once (fieldSourcesOf).
+      fieldSources: {},
       createdBy: op.userId,
       deviceId: op.deviceId,
       hlc: op.hlc,
+      createdOpId: op.opId,
       naturalKey: key,
       deleted: false,
       version: 1,
@@ -223,10 +268,10 @@ class Batch {
     if (namesAnotherRecord(op, existing)) return rejected(namesAnotherRecordReason);
     const kind = existing.kind as RecordKind;
     if (appendOnlyKinds.has(kind)) return rejected('Readings and measurements are never changed; record a correction instead.');
-    const parsed = recordFieldSchemas[kind].partial().strict().safeParse(op.fields);
+    const parsed = this.fieldsRead.get(op)!;
     if (!parsed.success) return rejected(`The change is not valid: ${parsed.error.issues[0]?.path.join('.')}: ${parsed.error.issues[0]?.message}.`);
     const unknown: FieldSource = { userId: existing.createdBy, deviceId: existing.deviceId, opId: 'unknown', hlc: existing.hlc };
-    const merge = mergeFields(existing.fields, existing.fieldSources, { fields: op.fields, base: op.base }, source, unknown);
+    const merge = mergeFields(existing.fields, fieldSourcesOf(existing), { fields: op.fields, base: op.base }, source, unknown);
     this.setFields(existing, merge.apply, source);
     const conflictIds = merge.conflicts.map((c) =>
       this.addConflict({ competitionId: existing.competitionId, area: existing.area, kind: 'field', recordId: existing.id, field: c.field, base: c.base, kept: c.kept, incoming: c.incoming }),
@@ -269,7 +314,7 @@ class Batch {
         this.touchRecord(drop.id);
       }
     } else {
-      const parsed = recordFieldSchemas[record.kind as RecordKind].partial().strict().safeParse({ [conflict.field!]: value });
+      const parsed = editSchemas[record.kind as RecordKind].safeParse({ [conflict.field!]: value });
       if (!parsed.success) return rejected(`The settled value is not valid: ${parsed.error.issues[0]?.message}.`);
       this.setFields(record, { [conflict.field!]: value }, source);
     }
@@ -296,36 +341,37 @@ class Batch {
   }
 
   private touchRecord(id: string): void {
-    if (!this.changedRecords.includes(id)) this.changedRecords.push(id);
+    this.changedRecords.add(id);
   }
 
   private touchConflict(id: string): void {
-    if (!this.changedConflicts.includes(id)) this.changedConflicts.push(id);
+    this.changedConflicts.add(id);
   }
 
   async write(): Promise<void> {
-    const { tx } = this;
-    const changes = this.changedRecords.length + this.changedConflicts.length;
-    if (changes > 0) {
-      // Taking the numbers locks the counter row until commit: a later batch cannot commit a higher
-      // number first, so a pull never skips a change (SPEC.md §8).
-      const [counter] = await tx
-        .update(syncCounter)
-        .set({ value: sql`${syncCounter.value} + ${changes}` })
-        .where(eq(syncCounter.id, 1))
-        .returning({ value: syncCounter.value });
-      let next = counter!.value - changes + 1;
-      for (const id of this.changedRecords) this.records.get(id)!.changeSeq = next++;
-      for (const id of this.changedConflicts) this.conflicts.get(id)!.changeSeq = next++;
-    }
-    // One statement per table and kind of write, whatever the batch holds (bulk-rows.ts).
-    const records = this.changedRecords.map((id) => this.records.get(id)!);
-    await insertRows(tx, syncRecords, records.filter((r) => this.newRecords.has(r.id)));
-    await updateRows(tx, syncRecords, 'id', ['fields', 'fieldSources', 'deleted', 'version', 'changeSeq'], records.filter((r) => !this.newRecords.has(r.id)));
-    const conflicts = this.changedConflicts.map((id) => this.conflicts.get(id)!);
-    await insertRows(tx, syncConflicts, conflicts.filter((c) => this.newConflicts.has(c.id)));
-    await updateRows(tx, syncConflicts, 'id', ['status', 'settlement', 'changeSeq'], conflicts.filter((c) => !this.newConflicts.has(c.id)));
-    await insertRows(tx, opReceipts, this.newReceipts);
-    await updateRows(tx, deviceCursors, 'deviceId', ['lastSeq'], [...this.cursors].map(([deviceId, lastSeq]) => ({ deviceId, lastSeq })));
+    const changes = this.changedRecords.size + this.changedConflicts.size;
+    // Each changed row's place among the batch's changes (1, 2, 3 ...); it is stored counted on from the
+    // last change number handed out before (`taken`).
+    let place = 1;
+    for (const id of this.changedRecords) this.records.get(id)!.changeSeq = place++;
+    for (const id of this.changedConflicts) this.conflicts.get(id)!.changeSeq = place++;
+    const changeSeq: Shift = { field: 'changeSeq', by: sql`(select taken from counter)` };
+    const records = [...this.changedRecords].map((id) => this.records.get(id)!);
+    const conflicts = [...this.changedConflicts].map((id) => this.conflicts.get(id)!);
+    // All in one statement (bulk-rows.ts). Taking the numbers locks the counter row until commit: a later
+    // batch cannot commit a higher number first, so a pull never skips a change (SPEC.md §8).
+    await writeTogether(this.tx, {
+      counter:
+        changes > 0
+          ? sql`update ${syncCounter} set ${sql.identifier(syncCounter.value.name)} = ${syncCounter.value} + ${changes} where ${syncCounter.id} = 1
+              returning ${syncCounter.value} - ${changes} as taken`
+          : undefined,
+      newRecords: insertRows(syncRecords, records.filter((r) => this.newRecords.has(r.id)), changeSeq),
+      changedRecords: updateRows(syncRecords, 'id', ['fields', 'fieldSources', 'deleted', 'version', 'changeSeq'], records.filter((r) => !this.newRecords.has(r.id)), changeSeq),
+      newConflicts: insertRows(syncConflicts, conflicts.filter((c) => this.newConflicts.has(c.id)), changeSeq),
+      changedConflicts: updateRows(syncConflicts, 'id', ['status', 'settlement', 'changeSeq'], conflicts.filter((c) => !this.newConflicts.has(c.id)), changeSeq),
+      receipts: insertRows(opReceipts, this.newReceipts),
+      cursors: updateRows(deviceCursors, 'deviceId', ['lastSeq'], [...this.cursors].map(([deviceId, lastSeq]) => ({ deviceId, lastSeq }))),
+    });
   }
 }

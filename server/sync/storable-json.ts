@@ -37,5 +37,12 @@ function someText(value: unknown, found: (text: string | null, depth: number) =>
 /** True when arrays and objects in the value nest deeper than the limit. */
 export const nestedTooDeep = (value: unknown, limit = maxOpNesting): boolean => someText(value, (_, depth) => depth > limit);
 
+/**
+ * JSON.stringify writes NUL and every half surrogate pair as a \u escape (a whole pair stays as it is),
+ * so a value whose JSON has no such escape holds neither, and the slow walk is only needed when it does.
+ */
+const mayHoldUnstorable = /\\u(?:0000|d[89a-f])/i;
+
 /** True when some string or key in the value holds a character PostgreSQL cannot store. */
-export const hasUnstorableText = (value: unknown): boolean => someText(value, (text) => text !== null && unstorableCharacter.test(text));
+export const hasUnstorableText = (value: unknown): boolean =>
+  mayHoldUnstorable.test(JSON.stringify(value) ?? '') && someText(value, (text) => text !== null && unstorableCharacter.test(text));

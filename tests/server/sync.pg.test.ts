@@ -107,6 +107,35 @@ describe('merging edits (SPEC.md §5)', () => {
     expect((await a.push(check, first, second)).map((r) => r.status)).toEqual(['applied', 'applied', 'applied']);
   });
 
+  it('when an edit clashes with a value a field still holds from its creation, then the conflict names the creating op as the kept side', async () => {
+    const a = await device('start-official');
+    const b = await device('start-official-2');
+    const check = a.op({ action: 'create', recordKind: 'start-check', fields: startCheck(61) });
+    await a.push(check);
+    const fromB = b.op({ action: 'update', recordKind: 'start-check', recordId: check.recordId, fields: { status: 'referred' }, base: { status: 'cleared' } });
+    const [clash] = await b.push(fromB);
+    expect(clash!.status).toBe('conflict');
+
+    const { changes } = await b.pull();
+    const conflict = changes.find((c) => c.type === 'conflict' && c.conflict.id === clash!.conflictIds[0]);
+    expect(conflict?.type === 'conflict' && conflict.conflict).toMatchObject({
+      field: 'status',
+      base: 'cleared',
+      kept: { value: 'in-progress', userId: ids.get('start-official'), deviceId: a.deviceId, opId: check.opId, hlc: check.hlc },
+      incoming: { value: 'referred', userId: ids.get('start-official-2'), deviceId: b.deviceId, opId: fromB.opId, hlc: fromB.hlc },
+    });
+  });
+
+  it('when the device that made a record edits a field still at its created value from an older base, then the edit chains and applies', async () => {
+    const a = await device('start-official');
+    const check = a.op({ action: 'create', recordKind: 'start-check', fields: startCheck(62) });
+    const edit = a.op({ action: 'update', recordKind: 'start-check', recordId: check.recordId, fields: { status: 'cleared' }, base: { status: 'referred' } });
+    await a.push(check);
+    expect((await a.push(edit))[0]).toMatchObject({ status: 'applied', conflictIds: [] });
+    const [row] = await database.db.select().from(syncRecords).where(eq(syncRecords.id, check.recordId));
+    expect(row!.fields['status']).toBe('cleared');
+  });
+
   it('when two devices record the start check of the same sled and run, then both are kept as a duplicate-record conflict', async () => {
     const a = await device('start-official');
     const b = await device('start-official-2');

@@ -1,0 +1,2 @@
+ALTER TABLE "sync_records" ADD COLUMN "created_op_id" uuid;--> statement-breakpoint
+CREATE INDEX "sync_conflicts_open_duplicate_idx" ON "sync_conflicts" USING btree (("incoming"->>'value')) WHERE "sync_conflicts"."kind" = 'duplicate-record' and "sync_conflicts"."status" = 'open';
