@@ -1,6 +1,6 @@
 import type { BrowserContext, Page } from 'playwright-core';
 import { describe, expect, it } from 'vitest';
-import { demoPassword } from '../../server/ops/demo-users';
+import { signInInBrowser } from '../support/browser-sign-in';
 import { useServerAndBrowser } from '../support/e2e-fixture';
 import { bandedPng } from '../support/test-png';
 
@@ -9,13 +9,7 @@ const phone = { viewport: { width: 412, height: 915 } };
 const competitionId = '0193a5c0-0000-7000-8000-000000000001';
 const startArea = (path: string) => `${fixture.server.url}/competitions/${competitionId}/start/${path}`;
 
-async function signIn(page: Page, email: string): Promise<void> {
-  await page.goto(`${fixture.server.url}/sign-in`);
-  await page.locator('input[name=email]').fill(email);
-  await page.locator('input[name=password]').fill(demoPassword);
-  await page.getByRole('button', { name: 'Sign in' }).click();
-  await page.waitForURL((url) => url.pathname === '/');
-}
+const signIn = (page: Page, email: string) => signInInBrowser(page, fixture.server.url, email);
 
 const stripText = async (page: Page, item: string) => (await page.locator(`[data-item="${item}"]`).textContent())?.replace(/\s+/g, ' ').trim() ?? '';
 

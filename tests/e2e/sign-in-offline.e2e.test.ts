@@ -1,19 +1,14 @@
 import type { BrowserContext, Page } from 'playwright-core';
 import { describe, expect, it } from 'vitest';
 import { demoPassword } from '../../server/ops/demo-users';
+import { signInInBrowser } from '../support/browser-sign-in';
 import { useServerAndBrowser } from '../support/e2e-fixture';
 
 const fixture = useServerAndBrowser();
 const phone = { viewport: { width: 412, height: 915 } };
 const headerText = async (page: Page) => (await page.locator('header').textContent())?.replace(/\s+/g, ' ') ?? '';
 
-async function signIn(page: Page, email: string): Promise<void> {
-  await page.goto(`${fixture.server.url}/sign-in`);
-  await page.locator('input[name=email]').fill(email);
-  await page.locator('input[name=password]').fill(demoPassword);
-  await page.getByRole('button', { name: 'Sign in' }).click();
-  await page.waitForURL((url) => url.pathname === '/');
-}
+const signIn = (page: Page, email: string) => signInInBrowser(page, fixture.server.url, email);
 
 async function keyPin(page: Page, pin: string): Promise<void> {
   for (const digit of pin) await page.locator('rl-pin-pad button', { hasText: new RegExp(`^\\s*${digit}\\s*$`) }).click();
