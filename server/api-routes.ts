@@ -6,6 +6,7 @@ import type { PasswordResetLimits } from './invitations/reset-limits';
 import { mailboxRoutes } from './mail/mailbox-routes';
 import type { Mailer } from './mail/mailer';
 import { competitionRoutes } from './routes/competitions';
+import { fieldDataRoutes } from './routes/field-data';
 import { healthRoutes } from './routes/health';
 import { syncRoutes } from './sync/sync-routes';
 import { uploadRoutes, type UploadSettings } from './uploads/upload-routes';
@@ -24,6 +25,7 @@ export function apiRoutes(deps: ApiDeps): ApiRoute[] {
   return [
     ...healthRoutes(deps.db),
     ...competitionRoutes(deps.db),
+    ...fieldDataRoutes(deps.db),
     ...authRoutes(deps),
     ...invitationRoutes(deps),
     ...passwordResetRoutes(deps),

@@ -1,11 +1,13 @@
 import { sql } from 'drizzle-orm';
-import { bigint, boolean, date, index, integer, jsonb, pgEnum, pgTable, primaryKey, text, timestamp, unique, uuid } from 'drizzle-orm/pg-core';
+import { bigint, boolean, check, date, index, integer, jsonb, pgEnum, pgTable, primaryKey, text, timestamp, unique, uuid } from 'drizzle-orm/pg-core';
 import { areas, roles, type RoleAssignment } from '../../shared/auth/roles';
 import {
   competitionLevels,
   competitionStatuses,
   trackTypes,
 } from '../../shared/competition/competition';
+import { instrumentPurposes } from '../../shared/competition/instruments';
+import { disciplines } from '../../shared/rules/rules-profile';
 import type { RulesProfile } from '../../shared/rules/rules-profile';
 import type { ConflictSettlement, ConflictSide, FieldSource } from '../../shared/sync/sync-api';
 
@@ -202,6 +204,57 @@ export const deviceCursors = pgTable('device_cursors', {
   deviceId: uuid('device_id').primaryKey(),
   lastSeq: integer('last_seq').notNull(),
 });
+
+// --- Start list and instruments (seeded by the demo until the organiser's set-up screens exist) ---
+
+/** A list of constants as SQL text for a check constraint (constants only: never user input). */
+const sqlList = (values: readonly string[]) => sql.raw(values.map((v) => `'${v}'`).join(', '));
+
+export const startListEntries = pgTable(
+  'start_list_entries',
+  {
+    competitionId: uuid('competition_id')
+      .notNull()
+      .references(() => competitions.id, { onDelete: 'cascade' }),
+    bib: integer('bib').notNull(),
+    startOrder: integer('start_order').notNull(),
+    discipline: text('discipline', { enum: disciplines }).notNull(),
+    athlete: text('athlete').notNull(),
+    /** The second athlete of a doubles sled; null for singles. */
+    secondAthlete: text('second_athlete'),
+  },
+  (table) => [
+    primaryKey({ name: 'start_list_entries_bib_pk', columns: [table.competitionId, table.bib] }),
+    unique('start_list_entries_start_order_unique').on(table.competitionId, table.startOrder),
+    check('start_list_entries_discipline_check', sql`${table.discipline} in (${sqlList(disciplines)})`),
+    check('start_list_entries_positive_check', sql`${table.bib} > 0 and ${table.startOrder} > 0`),
+    check('start_list_entries_doubles_check', sql`(${table.discipline} = 'doubles') = (${table.secondAthlete} is not null)`),
+  ],
+);
+
+/** Pyrometers, scales, gauges: each reading names one, and only the official it is assigned to may use it. */
+export const instruments = pgTable(
+  'instruments',
+  {
+    id: uuid('id').primaryKey(),
+    competitionId: uuid('competition_id')
+      .notNull()
+      .references(() => competitions.id, { onDelete: 'cascade' }),
+    /** What is written on it, e.g. "PYR-07". */
+    label: text('label').notNull(),
+    purpose: text('purpose', { enum: instrumentPurposes }).notNull(),
+    /** The last day its calibration holds. */
+    calibratedUntil: date('calibrated_until', { mode: 'string' }).notNull(),
+    assignedTo: text('assigned_to').references(() => users.id, { onDelete: 'set null' }),
+    /** The calibration certificate, an upload named by its SHA-256 (it may arrive after the row). */
+    certificateSha256: text('certificate_sha256'),
+  },
+  (table) => [
+    unique('instruments_label_unique').on(table.competitionId, table.label),
+    check('instruments_purpose_check', sql`${table.purpose} in (${sqlList(instrumentPurposes)})`),
+    check('instruments_certificate_check', sql`${table.certificateSha256} ~ '^[0-9a-f]{64}$'`),
+  ],
+);
 
 // --- Uploads: evidence photos and calibration certificates (server/uploads) ---
 

@@ -4,13 +4,22 @@ import { projectRoot, readConfig } from '../config';
 import { createLogger } from '../logger';
 import { serve } from '../main';
 import { buildClient, isClientBuildStale } from './client-build';
-import { seedDemoScenario } from './demo-scenario';
+import { demoCompetitions, seedDemoScenario } from './demo-scenario';
 import { demoPassword, demoUsers } from './demo-users';
 import { startLocalPostgres, type LocalPostgres } from './postgres';
 import { roleLabels, type RoleAssignment } from '../../shared/auth/roles';
 
-const describeRoles = (roles: readonly RoleAssignment[]) =>
-  roles.map((r) => `${roleLabels[r.role]}${r.area ? ` (${r.area})` : ''}${r.competitionId ? '' : ', all competitions'}`).join(', ');
+const competitionNames = new Map<string, string>(demoCompetitions.map((c) => [c.id, c.name]));
+
+/** "Official (start) at Frostbarrow Night Sprint, Glimmerdale Junior Cup": one line per role, the races after it. */
+function describeRoles(roles: readonly RoleAssignment[]): string {
+  const where = new Map<string, string[]>();
+  for (const r of roles) {
+    const role = `${roleLabels[r.role]}${r.area ? ` (${r.area})` : ''}`;
+    where.set(role, [...(where.get(role) ?? []), r.competitionId ? (competitionNames.get(r.competitionId) ?? r.competitionId) : 'all competitions']);
+  }
+  return [...where].map(([role, places]) => `${role} at ${places.join(', ')}`).join('; ');
+}
 
 const say = (line: string) => console.log(`[rimelog] ${line}`);
 

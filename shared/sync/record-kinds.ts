@@ -6,7 +6,7 @@ import { measurementSchema } from '../rules/measurement';
  * a new record naming the one it supersedes, with a reason. Editable kinds merge field by field.
  */
 const isoTime = z.iso.datetime({ offset: true });
-export const photoPurposes = ['evidence', 'certificate'] as const;
+export const photoPurposes = ['evidence', 'certificate', 'signature'] as const;
 export type PhotoPurpose = (typeof photoPurposes)[number];
 /** What the server's upload route accepts (server/uploads/file-kinds.ts keeps the byte signatures). */
 export const photoMediaTypes = ['image/jpeg', 'image/png', 'image/webp', 'application/pdf'] as const;
@@ -57,11 +57,22 @@ export const recordFieldSchemas = {
     caption: z.string().max(500).default(''),
     ...correction,
   }),
+  /**
+   * The measuring official's signature under a log: exactly the readings signed (those on the device not
+   * yet signed, corrections included) and the words shown when signing. The picture is a `photo` of it
+   * with purpose 'signature'. A signed reading is no longer corrected on the device.
+   */
+  'log-signature': z.strictObject({
+    log: z.literal('control-steel'),
+    readingIds: z.array(z.uuid()).min(1).max(500),
+    signedAt: isoTime,
+    statement: z.string().min(1).max(1000),
+  }),
 } as const;
 
 export type RecordKind = keyof typeof recordFieldSchemas;
 export const recordKinds = Object.keys(recordFieldSchemas) as RecordKind[];
-export const appendOnlyKinds: ReadonlySet<RecordKind> = new Set(['control-reading', 'measurement', 'photo']);
+export const appendOnlyKinds: ReadonlySet<RecordKind> = new Set(['control-reading', 'measurement', 'photo', 'log-signature']);
 
 /** Records that must be unique: a second one is kept, but as a conflict for the area leader. */
 export function naturalKey(kind: RecordKind, competitionId: string, fields: Record<string, unknown>): string | null {

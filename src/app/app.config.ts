@@ -12,6 +12,7 @@ import { provideServiceWorker } from '@angular/service-worker';
 import { bypassServiceWorkerForApi } from './core/api-bypass';
 import { routes } from './app.routes';
 import { AuthStore } from './auth/auth-store';
+import { FieldDataStore } from './core/field-data/field-data-store';
 import { AppUpdate } from './core/sync/app-update';
 import { DeviceStore } from './core/sync/device-store';
 
@@ -26,6 +27,8 @@ export const appConfig: ApplicationConfig = {
     // Opens the records on this device in the background; syncing follows sign-in.
     provideAppInitializer(() => inject(DeviceStore).start()),
     provideAppInitializer(() => inject(AppUpdate).start()),
+    // Keeps each competition's start list, instruments and rules on the device after every sync.
+    provideAppInitializer(() => inject(FieldDataStore).start()),
     provideServiceWorker('ngsw-worker.js', {
       enabled: !isDevMode(),
       registrationStrategy: 'registerWhenStable:30000',

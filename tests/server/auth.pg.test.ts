@@ -36,7 +36,10 @@ describe('signing in', () => {
     expect(cookie).toMatch(/; Path=\//);
     const body = meSchema.parse(response.body);
     expect(body.user.displayName).toBe('Pim Aldous');
-    expect(body.roles).toEqual([{ role: 'official', competitionId: '0193a5c0-0000-7000-8000-000000000001', area: 'start' }]);
+    expect(body.roles).toEqual([
+      { role: 'official', competitionId: '0193a5c0-0000-7000-8000-000000000001', area: 'start' },
+      { role: 'official', competitionId: '0193a5c0-0000-7000-8000-000000000003', area: 'start' },
+    ]);
     // SPEC §2: three days
     const lifetimeHours = (Date.parse(body.sessionExpiresAt) - Date.now()) / 3_600_000;
     expect(lifetimeHours).toBeGreaterThan(71.9);

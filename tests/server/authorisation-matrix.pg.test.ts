@@ -23,6 +23,7 @@ const expected: Record<string, Record<Principal, number>> = {
   'GET /health': everyone(200),
   'GET /competitions': everyone(200),
   'GET /competitions/:id/rules-profile': { ...signedInAll(200), 'official-elsewhere': 403 },
+  'GET /competitions/:id/field-data': { ...signedInAll(200), 'official-elsewhere': 403 },
   'POST /auth/sign-in': everyone(400),
   'GET /auth/me': signedInAll(200),
   'POST /auth/sign-out': signedInAll(204),

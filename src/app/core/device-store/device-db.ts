@@ -1,5 +1,6 @@
 import { Dexie, type DexieOptions, type Table, type Transaction } from 'dexie';
 import type { Area } from '../../../../shared/auth/roles';
+import type { FieldData } from '../../../../shared/competition/field-data';
 import { formatHybridTime } from '../../../../shared/sync/hybrid-clock';
 import type { PhotoMediaType, RecordKind } from '../../../../shared/sync/record-kinds';
 import type { ConflictSettlement, SyncConflict, SyncOp, SyncRecord } from '../../../../shared/sync/sync-api';
@@ -88,6 +89,18 @@ export interface PhotoBytes {
   data: ArrayBuffer;
 }
 
+/**
+ * The device's copy of one competition's start list, instruments, officials and frozen rules
+ * (field-data.ts), replaced whole by the next good answer from the server.
+ */
+export interface KeptFieldData {
+  competitionId: string;
+  /** As the server sent it; parsed again when read, so a copy an earlier version of the app kept is never trusted blindly. */
+  data: FieldData;
+  /** When this device kept it (device clock). */
+  keptAt: string;
+}
+
 export const syncStateKey = 'sync';
 export interface SyncState {
   key: typeof syncStateKey;
@@ -141,6 +154,13 @@ const versions: { version: number; stores: Record<string, string>; upgrade?: (tx
       photoBytes: 'sha256',
     },
   },
+  {
+    version: 3,
+    stores: {
+      // pulled from the server for work with no signal; one copy per competition
+      fieldData: 'competitionId',
+    },
+  },
 ];
 
 export class DeviceDb extends Dexie {
@@ -153,6 +173,7 @@ export class DeviceDb extends Dexie {
   declare meta: Table<DeviceMeta, string>;
   declare photos: Table<PhotoFile, string>;
   declare photoBytes: Table<PhotoBytes, string>;
+  declare fieldData: Table<KeptFieldData, string>;
 
   constructor(name: string, options: IndexedDbBackend = {}) {
     super(name, {

@@ -111,6 +111,49 @@ describe('record writer', () => {
     await expect(writer.correctRecord(fixed.id, {}, '   ', official)).rejects.toThrow(/why/);
   });
 
+  it('when a control reading is in a log signature on this device, then its correction is refused in words and nothing is queued; an unsigned one is still corrected', async () => {
+    db = await openTestDevice();
+    const writer = createRecordWriter({ db });
+    const reading = (tenths: number) => ({ reading: { tenths, unit: 'celsius' }, takenAt: '2027-01-14T09:05:00.000Z', instrumentId: 'P-7' });
+    const { record: signed } = await writer.createRecord('control-reading', competitionId, 'start', reading(-62), official);
+    const { record: unsigned } = await writer.createRecord('control-reading', competitionId, 'start', reading(-58), official);
+    await writer.createRecord(
+      'log-signature',
+      competitionId,
+      'start',
+      { log: 'control-steel', readingIds: [signed.id], signedAt: '2027-01-14T09:10:00.000Z', statement: 'I took these readings.' },
+      official,
+    );
+    const queued = await db.outbox.count();
+
+    await expect(writer.correctRecord(signed.id, { reading: { tenths: -64, unit: 'celsius' } }, 'misread', official)).rejects.toThrow(
+      new RecordRefusedError('This reading is in the signed log; a change needs the technical delegate.'),
+    );
+    expect(await db.outbox.count()).toBe(queued);
+    expect(await db.records.where('supersedes').equals(signed.id).count()).toBe(0);
+
+    const { record: fixed } = await writer.correctRecord(unsigned.id, { reading: { tenths: -59, unit: 'celsius' } }, 'misread', official);
+    expect(fixed.supersedes).toBe(unsigned.id);
+  });
+
+  it('when a log signature is edited, removed or corrected, then it is refused: a signature is never changed', async () => {
+    db = await openTestDevice();
+    const writer = createRecordWriter({ db });
+    const { record: reading } = await writer.createRecord('control-reading', competitionId, 'start', { reading: { tenths: -62, unit: 'celsius' }, takenAt: '2027-01-14T09:05:00.000Z', instrumentId: 'P-7' }, official);
+    const { record: signature } = await writer.createRecord(
+      'log-signature',
+      competitionId,
+      'start',
+      { log: 'control-steel', readingIds: [reading.id], signedAt: '2027-01-14T09:10:00.000Z', statement: 'I took these readings.' },
+      official,
+    );
+
+    await expect(writer.updateRecord(signature.id, { readingIds: [] }, official)).rejects.toBeInstanceOf(RecordRefusedError);
+    await expect(writer.deleteRecord(signature.id, official)).rejects.toBeInstanceOf(RecordRefusedError);
+    await expect(writer.correctRecord(signature.id, { readingIds: [] }, 'wrong', official)).rejects.toBeInstanceOf(RecordRefusedError);
+    expect(await db.records.get(signature.id)).toEqual(signature);
+  });
+
   it('when an editable record is corrected, then it is refused: it is changed instead', async () => {
     db = await openTestDevice();
     const writer = createRecordWriter({ db });

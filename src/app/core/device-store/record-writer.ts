@@ -178,6 +178,9 @@ export function createRecordWriter({ db, now = () => Date.now(), onCommitted }: 
       return writeWithOp([], async (stamp) => {
         const old = await existing(id);
         if (!appendOnlyKinds.has(old.kind)) throw new RecordRefusedError('Only readings and measurements are corrected; change this record instead.');
+        if (old.kind === 'control-reading' && (await isInSignedLog(db, old))) {
+          throw new RecordRefusedError('This reading is in the signed log; a change needs the technical delegate.');
+        }
         if ((await db.records.where('supersedes').equals(id).count()) > 0) {
           throw new RecordRefusedError('This value was already corrected; correct the newest value instead.');
         }
@@ -262,6 +265,18 @@ function newRecord(id: string, kind: RecordKind, competitionId: string, area: Ar
     supersedes: typeof supersedes === 'string' ? supersedes : null,
     lastLocalChange: localChange(stamp, user),
   };
+}
+
+/**
+ * Signing a log freezes its readings: some log signature on this device lists this one. Read leniently,
+ * so a signature written by a newer app version still freezes what it lists.
+ */
+async function isInSignedLog(db: DeviceDb, reading: LocalRecord): Promise<boolean> {
+  const signatures = await db.records.where('[competitionId+kind]').equals([reading.competitionId, 'log-signature']).toArray();
+  return signatures.some((signature) => {
+    const listed = signature.fields['readingIds'];
+    return !signature.deleted && Array.isArray(listed) && listed.includes(reading.id);
+  });
 }
 
 function refuseIfAppendOnly(kind: RecordKind, what: 'changed' | 'removed'): void {

@@ -45,3 +45,28 @@ function draw(context: OffscreenCanvasRenderingContext2D | CanvasRenderingContex
   if (!context) throw new RecordRefusedError('This device could not save the photo (no drawing surface). Try again.');
   context.drawImage(bitmap, 0, 0, width, height);
 }
+
+// The PNG signature, then its first chunk, IHDR (length 13), whose first 8 bytes are the width and height.
+const pngStart = [0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a, 0, 0, 0, 13, 0x49, 0x48, 0x44, 0x52];
+const pdfSignature = [0x25, 0x50, 0x44, 0x46, 0x2d]; // "%PDF-"
+
+/**
+ * Makes a PNG or PDF ready to keep exactly as it is (a signature, a scanned certificate): no scaling and
+ * no re-encoding, so its bytes and fingerprint stay those of the file given. A PNG's size in pixels is
+ * read from its header; no canvas is needed.
+ */
+export async function keepFileAsIs(file: Blob): Promise<PhotoFileInput> {
+  const data = await file.arrayBuffer();
+  const bytes = new Uint8Array(data);
+  const startsWith = (signature: readonly number[]) => signature.every((byte, i) => bytes[i] === byte);
+  if (file.type === 'application/pdf' && startsWith(pdfSignature)) {
+    return { mediaType: 'application/pdf', data, width: null, height: null };
+  }
+  if (file.type === 'image/png' && startsWith(pngStart) && bytes.byteLength >= 24) {
+    const header = new DataView(data, 16, 8);
+    const width = header.getUint32(0);
+    const height = header.getUint32(4);
+    if (width > 0 && height > 0) return { mediaType: 'image/png', data, width, height };
+  }
+  throw new RecordRefusedError('Only a PNG picture or a PDF is kept exactly as it is, and this file is neither.');
+}

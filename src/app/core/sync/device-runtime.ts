@@ -1,8 +1,10 @@
 import { liveQuery } from 'dexie';
 import { from, retry, type Observable } from 'rxjs';
 import { exportBackup, importBackup } from '../device-store/backup';
+import type { FieldData } from '../../../../shared/competition/field-data';
 import type { RecordKind } from '../../../../shared/sync/record-kinds';
 import type { DeviceDb, LocalRecord, Rejection } from '../device-store/device-db';
+import { keepFieldData, readFieldData, type KeepFieldDataResult } from '../device-store/field-data';
 import { createRecordWriter, type RecordWriter } from '../device-store/record-writer';
 import { createSyncEngine, type SyncEngine } from '../device-store/sync-engine';
 import type { DeviceStoreBackend } from './device-store-backend';
@@ -23,6 +25,10 @@ export interface DeviceRuntime {
   watchRecords: (competitionId: string, kind: RecordKind) => Observable<LocalRecord[]>;
   /** A photo file's bytes when this device has them. */
   photoBytes: (sha256: string) => Promise<ArrayBuffer | null>;
+  /** This device's copy of a competition's start list, instruments and rules (null if none), kept up to date. */
+  watchFieldData: (competitionId: string) => Observable<FieldData | null>;
+  /** Replaces the competition's copy with the server's answer when it parses. */
+  keepFieldData: (answer: unknown) => Promise<KeepFieldDataResult>;
 }
 
 export function startDeviceRuntime(db: DeviceDb, backend: DeviceStoreBackend): DeviceRuntime {
@@ -39,6 +45,8 @@ export function startDeviceRuntime(db: DeviceDb, backend: DeviceStoreBackend): D
     dismissRejection: (opId, userId) => dismissRejection(db, opId, userId, now),
     watchRecords: (competitionId, kind) => live(() => db.records.where('[competitionId+kind]').equals([competitionId, kind]).toArray()),
     photoBytes: async (sha256) => (await db.photoBytes.get(sha256))?.data ?? null,
+    watchFieldData: (competitionId) => live(() => readFieldData(db, competitionId)),
+    keepFieldData: (answer) => keepFieldData(db, answer, now),
   };
 }
 

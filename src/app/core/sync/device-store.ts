@@ -1,10 +1,12 @@
 import { DestroyRef, Injectable, Injector, computed, effect, inject, signal, untracked } from '@angular/core';
 import { Subscription, from, switchMap, type Observable } from 'rxjs';
 import type { Area } from '../../../../shared/auth/roles';
+import type { FieldData } from '../../../../shared/competition/field-data';
 import type { PhotoPurpose, RecordKind } from '../../../../shared/sync/record-kinds';
 import { AuthStore } from '../../auth/auth-store';
 import { deviceId } from '../../auth/device-id';
 import type { LocalRecord, Rejection } from '../device-store/device-db';
+import type { KeepFieldDataResult } from '../device-store/field-data';
 import type { RecordWriter, WriteResult } from '../device-store/record-writer';
 import { isQuotaError, RecordRefusedError, StorageFullError } from '../device-store/store-errors';
 import type { RoundResult, SyncStatus } from '../device-store/sync-engine';
@@ -138,9 +140,34 @@ export class DeviceStore {
     return this.write((writer, user) => writer.attachPhoto(of, prepared, { purpose, caption }, user));
   }
 
+  /**
+   * Keeps a PNG or PDF exactly as given (a signature must not be resized or re-encoded), with its photo
+   * record for the record `of`, in one transaction; uploaded like any photo.
+   */
+  async attachFileAsIs(of: string, file: Blob, purpose: PhotoPurpose, caption = ''): Promise<WriteResult> {
+    const kept = await (await import('../photos/prepare-photo')).keepFileAsIs(file);
+    return this.write((writer, user) => writer.attachPhoto(of, kept, { purpose, caption }, user));
+  }
+
   /** The records of one kind in a competition, as this device sees them; updates itself after every change. */
   watchRecords(competitionId: string, kind: RecordKind): Observable<LocalRecord[]> {
     return from(this.ready()).pipe(switchMap((runtime) => runtime.watchRecords(competitionId, kind)));
+  }
+
+  /** This device's copy of a competition's start list, instruments, officials and rules; null while it has none. */
+  fieldData(competitionId: string): Observable<FieldData | null> {
+    return from(this.ready()).pipe(switchMap((runtime) => runtime.watchFieldData(competitionId)));
+  }
+
+  /** Replaces the competition's copy with the server's answer when it parses; a full disk raises the storage banner. */
+  async keepFieldData(answer: unknown): Promise<KeepFieldDataResult> {
+    const runtime = await this.ready();
+    try {
+      return await runtime.keepFieldData(answer);
+    } catch (error) {
+      if (isQuotaError(error)) this.storage.noteStorageFull();
+      throw error;
+    }
   }
 
   /**

@@ -8,6 +8,7 @@ const kindNames: Record<RecordKind, { one: string; many: string }> = {
   measurement: { one: 'measurement', many: 'measurements' },
   violation: { one: 'violation', many: 'violations' },
   photo: { one: 'photo', many: 'photos' },
+  'log-signature': { one: 'log signature', many: 'log signatures' },
 };
 
 const actionWords: Record<SyncOp['action'], string> = {
@@ -70,6 +71,12 @@ function fieldSummary(kind: RecordKind, fields: Record<string, unknown>): string
       add('', text('purpose'));
       add('', text('caption'));
       break;
+    case 'log-signature': {
+      add('', text('log') === 'control-steel' ? 'control steel log' : text('log'));
+      const signed = Array.isArray(fields['readingIds']) ? fields['readingIds'].length : null;
+      if (signed !== null) add('', `${signed} ${signed === 1 ? 'reading' : 'readings'}`);
+      break;
+    }
   }
   return parts.join(', ');
 }

@@ -2,8 +2,11 @@
 import 'fake-indexeddb/auto';
 import { HttpTestingController } from '@angular/common/http/testing';
 import { TestBed, type ComponentFixture } from '@angular/core/testing';
+import { sha256 } from '@noble/hashes/sha2.js';
+import { bytesToHex } from '@noble/hashes/utils.js';
 import { firstValueFrom } from 'rxjs';
 import type { CompetitionRulesProfile } from '../../../../shared/rules/competition-profile';
+import type { RecordKind } from '../../../../shared/sync/record-kinds';
 import { profileWith } from '../../../../shared/rules/test-profiles';
 import { firstOfficial } from '../../auth/testing/auth-fixtures';
 import { createRecordWriter } from '../../core/device-store/record-writer';
@@ -15,6 +18,8 @@ import { FakeBrowserStorage, provideTestDeviceStore, startSignedIn, until } from
 import { appTestProviders, blankRoutes } from '../../testing/app-test-providers';
 import { CONTROL_STEEL_CLOCK } from './control-steel-clock';
 import { ControlSteelPage } from './control-steel-page';
+import { signingStatement } from './signed-log';
+import { fakeDrawingPads, signaturePngBytes, type FakeDrawingPad } from './testing/fake-drawing-pad';
 
 // The shipped profiles leave the grace unset; 2 min is this spec's own assumption. The 15 min interval
 // is trade practice, no published source.
@@ -36,15 +41,18 @@ const reading = (tenths: number, takenAt: Date, instrumentId = 'P-7') => ({
 
 async function setUp({ server = new FakeSyncServer(), time = at(9, 20) } = {}) {
   const clock = { now: time.getTime() };
+  // jsdom has no 2D canvas: the signature box draws on a fake pad (signature-pad.spec.ts covers the real one).
+  const { pads, providers: drawingPads } = fakeDrawingPads();
   TestBed.configureTestingModule({
     providers: [
       ...appTestProviders(blankRoutes('')),
       ...provideTestDeviceStore(server, new FakeBrowserStorage()),
       { provide: CONTROL_STEEL_CLOCK, useValue: () => clock.now },
+      ...drawingPads,
     ],
   });
   const store = await startSignedIn(firstOfficial);
-  return { server, store, clock };
+  return { server, store, clock, pads };
 }
 
 /** Opens the page; the rules arrive, fail as without signal, or are left pending. */
@@ -100,6 +108,16 @@ function pageOf(fixture: ComponentFixture<ControlSteelPage>) {
 }
 
 const storedReadings = (store: DeviceStore) => firstValueFrom(store.watchRecords(competitionId, 'control-reading'));
+const stored = (store: DeviceStore, kind: RecordKind) => firstValueFrom(store.watchRecords(competitionId, kind));
+const correctButtons = (page: { element: HTMLElement }) =>
+  [...page.element.querySelectorAll('[data-section="log"] button')].filter((b) => b.textContent?.trim() === 'Correct');
+
+/** Draws on the signature box's pad (the newest one on screen) and presses Sign. */
+async function signWith(page: ReturnType<typeof pageOf>, pads: FakeDrawingPad[]) {
+  await until(() => page.element.querySelector('rl-signature-pad') !== null && pads.length > 0, 'the signature box shows');
+  pads.at(-1)!.draw();
+  page.press('Sign', '[data-section="sign"]');
+}
 
 describe('ControlSteelPage', () => {
   beforeEach(() => localStorage.clear());
@@ -282,5 +300,107 @@ describe('ControlSteelPage', () => {
     expect(page.entries()[0]).toContain('another official · pyrometer P-9');
     expect(page.entries()[0]).not.toContain('only on this device');
     expect(page.element.querySelector('.log-entry button')).toBeNull();
+  });
+
+  it('when the official signs, then a log signature lists exactly the unsigned readings (corrections included), the PNG is kept as drawn, and the log shows who signed with 🔒 on each reading and no Correct', async () => {
+    const { server, store, clock, pads } = await setUp();
+    const { record: first } = await store.createRecord('control-reading', competitionId, 'start', reading(-62, at(9, 5)));
+    const { record: fix } = await store.correctRecord(first.id, { reading: { tenths: -64, unit: 'celsius' } }, 'misread the display');
+    const { record: later } = await store.createRecord('control-reading', competitionId, 'start', reading(-58, at(9, 15)));
+    const page = await openPage('arrive');
+    await until(() => page.text('[data-section="to-sign-count"]') !== '', 'the readings to sign show');
+
+    expect(page.text('[data-section="to-sign-count"]')).toBe('3 unsigned readings, oldest first:');
+    expect(page.text('[data-section="to-sign"]')).toContain('09:05 −6.2 °C · First Official · pyrometer P-7');
+    expect(page.text('[data-section="to-sign"]')).toContain('09:05 −6.4 °C · First Official · pyrometer P-7 (correction)');
+    expect(page.text('[data-section="to-sign"]')).toContain('09:15 −5.8 °C');
+    expect(page.text('[data-section="statement"]')).toBe(signingStatement);
+    expect(page.text('[data-section="sign"]')).toContain('You sign as First Official.');
+    expect(correctButtons(page)).toHaveLength(2);
+
+    await signWith(page, pads);
+
+    await until(() => page.text('[data-section="signed"]') !== '', 'the signature is saved');
+    expect(page.text('[data-section="signed"]')).toBe('✓ Signed on this device 09:20:00: 3 readings in the signed log.');
+    const [signature] = await stored(store, 'log-signature');
+    expect(signature?.fields).toEqual({ log: 'control-steel', readingIds: [first.id, fix.id, later.id], signedAt: new Date(clock.now).toISOString(), statement: signingStatement });
+    expect(signature?.createdBy).toBe('official-one');
+    const [picture] = await stored(store, 'photo');
+    // Kept exactly as drawn: the same bytes, so the same fingerprint; no resizing or re-encoding.
+    expect(picture?.fields).toMatchObject({ of: signature!.id, purpose: 'signature', mediaType: 'image/png', width: 3, height: 2, bytes: signaturePngBytes().byteLength, sha256: bytesToHex(sha256(signaturePngBytes())) });
+
+    await until(() => page.text('[data-section="signatures"]') !== '', 'the log shows the signature');
+    expect(page.text('[data-section="signatures"]')).toBe('✍ Signed by First Official at 09:20: 3 readings');
+    expect(page.entries()).toHaveLength(3);
+    for (const entry of page.entries()) expect(entry).toContain('🔒 signed');
+    expect(correctButtons(page)).toEqual([]);
+    expect(page.text('[data-section="nothing-to-sign"]')).toBe('Every reading on this device is in the signed log.');
+    // The device itself refuses to change a signed reading, whatever asks.
+    await expect(store.correctRecord(later.id, { reading: { tenths: -57, unit: 'celsius' } }, 'typo')).rejects.toThrow(
+      'This reading is in the signed log; a change needs the technical delegate.',
+    );
+    await until(() => server.received.some((op) => op.recordKind === 'photo'), 'the signature reaches the server');
+    expect(server.received.filter((op) => op.recordKind === 'log-signature').map((op) => op.recordId)).toEqual([signature!.id]);
+
+    // A reading taken after signing is not in the signed log: it can be corrected and waits for the next signature.
+    clock.now = at(9, 35).getTime();
+    page.type('input[name="instrument"]', 'P-7');
+    page.keys('[data-section="entry"]', '5', '.', '5', '±', 'Save');
+    await until(() => page.entries().length === 4, 'the new reading shows');
+    expect(page.entries()[0]).not.toContain('🔒 signed');
+    expect(correctButtons(page)).toHaveLength(1);
+    expect(page.text('[data-section="to-sign-count"]')).toBe('1 unsigned reading, oldest first:');
+
+    await signWith(page, pads);
+    await until(() => page.text('[data-section="signed"]').includes('1 reading'), 'the second signature is saved');
+    const signatures = await stored(store, 'log-signature');
+    const newest = signatures.find((s) => s.id !== signature!.id);
+    const [newReading] = (await storedReadings(store)).filter((r) => r.fields['takenAt'] === at(9, 35).toISOString());
+    expect(newest?.fields['readingIds']).toEqual([newReading!.id]);
+    expect(correctButtons(page)).toEqual([]);
+  });
+
+  it('when Sign is pressed on an empty signature box, then it is refused in words and nothing is signed or frozen', async () => {
+    const { server, store } = await setUp();
+    await store.createRecord('control-reading', competitionId, 'start', reading(-62, at(9, 5)));
+    const page = await openPage('arrive');
+    await until(() => page.element.querySelector('rl-signature-pad') !== null, 'the signature box shows');
+
+    page.press('Sign', '[data-section="sign"]');
+
+    expect(page.text('[data-section="signature-problem"]')).toBe('⚠ Write your signature in the white box first: an empty box cannot be signed.');
+    expect(await stored(store, 'log-signature')).toEqual([]);
+    expect(await stored(store, 'photo')).toEqual([]);
+    expect(server.received.filter((op) => op.recordKind !== 'control-reading')).toEqual([]);
+    expect(page.entries()[0]).not.toContain('🔒 signed');
+    expect(correctButtons(page)).toHaveLength(1);
+  });
+
+  it('when the picture cannot be saved, then the log is still signed and says the picture is missing; signing again saves it for the same signature', async () => {
+    const { store, pads } = await setUp();
+    await store.createRecord('control-reading', competitionId, 'start', reading(-62, at(9, 5)));
+    vi.spyOn(store, 'attachFileAsIs').mockRejectedValueOnce(new StorageFullError(new DOMException('full', 'QuotaExceededError')));
+    const page = await openPage('arrive');
+
+    await signWith(page, pads);
+
+    await until(() => page.text('[data-section="sign-problem"]') !== '', 'the failure shows');
+    expect(page.text('[data-section="sign-problem"]')).toContain('The log is signed (1 reading frozen), but the picture of the signature was NOT saved.');
+    expect(page.text('[data-section="sign-problem"]')).toContain('This device is out of storage');
+    expect(page.text('[data-section="signed"]')).toBe('');
+    await until(() => page.text('[data-section="picture-owed"]') !== '', 'the missing picture is said');
+    expect(page.text('[data-section="signatures"]')).toContain('⚠ the picture of this signature is not on this device');
+    expect(correctButtons(page)).toEqual([]);
+
+    page.press('Sign', '[data-section="sign"]');
+
+    await until(() => page.text('[data-section="signed"]') !== '', 'the picture is saved');
+    expect(page.text('[data-section="signed"]')).toContain('1 reading in the signed log.');
+    const signatures = await stored(store, 'log-signature');
+    expect(signatures).toHaveLength(1);
+    const photos = await stored(store, 'photo');
+    expect(photos.map((photo) => photo.fields['of'])).toEqual([signatures[0]!.id]);
+    await until(() => !page.text('[data-section="signatures"]').includes('not on this device'), 'the picture is there');
+    expect(page.element.querySelector('[data-section="picture-owed"]')).toBeNull();
   });
 });

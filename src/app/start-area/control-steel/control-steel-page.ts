@@ -4,10 +4,11 @@ import { MatButtonModule } from '@angular/material/button';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatInputModule } from '@angular/material/input';
 import { RouterLink } from '@angular/router';
-import { catchError, of, switchMap } from 'rxjs';
+import { catchError, of, switchMap, type Observable } from 'rxjs';
 import { controlSteelStatus } from '../../../../shared/rules/control-steel';
 import { formatTenths } from '../../../../shared/rules/measurement';
 import { RulesInputError } from '../../../../shared/rules/rules-error';
+import type { RecordKind } from '../../../../shared/sync/record-kinds';
 import { AuthStore } from '../../auth/auth-store';
 import type { LocalRecord } from '../../core/device-store/device-db';
 import { DeviceStore } from '../../core/sync/device-store';
@@ -19,6 +20,8 @@ import { controlLog, currentReadings, type ControlLogEntry } from './control-log
 import { CONTROL_STEEL_CLOCK } from './control-steel-clock';
 import { instrumentProblem, keepInstrument, keepRules, readKeptInstrument, readKeptRules } from './control-steel-memory';
 import { countdownWords, type CountdownWords } from './countdown-words';
+import { SignaturePadField } from './signature-pad';
+import { logSignatures, readingsToSign, signedReadingIds, signingStatement } from './signed-log';
 import { LastScreen } from '../last-screen';
 import { keepScreenAwake } from '../screen-awake';
 
@@ -33,13 +36,14 @@ type CountdownPanel =
 
 /**
  * The control steel at the start: when the next reading is due, a glove keypad to log one, and the log
- * of every reading of the competition on this device, with corrections. Works offline once the
+ * of every reading of the competition on this device, with corrections. The measuring official signs
+ * the log here; a signed reading is frozen (never corrected on the device). Works offline once the
  * competition's rules have been on screen with signal.
  */
 @Component({
   selector: 'rl-control-steel-page',
   changeDetection: ChangeDetectionStrategy.OnPush,
-  imports: [MatButtonModule, MatFormFieldModule, MatInputModule, RouterLink, GloveKeypad],
+  imports: [MatButtonModule, MatFormFieldModule, MatInputModule, RouterLink, GloveKeypad, SignaturePadField],
   templateUrl: './control-steel-page.html',
   styleUrl: './control-steel-page.scss',
 })
@@ -60,24 +64,41 @@ export class ControlSteelPage {
   private readonly profile = computed(() => (this.rules.hasValue() ? this.rules.value().profile : (this.keptRules()?.profile ?? null)));
 
   private readonly logProblem = signal<string | null>(null);
-  private readonly records = toSignal(
-    toObservable(this.id).pipe(
-      switchMap((id) =>
-        this.store.watchRecords(id, 'control-reading').pipe(
-          catchError((error: unknown) => {
-            this.logProblem.set(messageOf(error));
-            return of<LocalRecord[]>([]);
-          }),
-        ),
-      ),
-    ),
-    { initialValue: null },
-  );
+  private readonly records = toSignal(this.watch('control-reading'), { initialValue: null });
+  private readonly signatureRecords = toSignal(this.watch('log-signature'), { initialValue: null });
+  private readonly photoRecords = toSignal(this.watch('photo'), { initialValue: null });
   protected readonly log = computed(() => {
     const records = this.records();
     return records === null ? null : controlLog(records);
   });
   protected readonly logError = this.logProblem.asReadonly();
+
+  /** Readings in a signed log: shown "signed", never corrected here. */
+  protected readonly signedIds = computed(() => signedReadingIds(this.signatureRecords() ?? []));
+  protected readonly signatures = computed(() => logSignatures(this.signatureRecords() ?? [], this.photoRecords() ?? []));
+  /** Whether the photo records have been read, so a missing signature picture is really missing. */
+  protected readonly picturesKnown = computed(() => this.photoRecords() !== null);
+  /** The readings a signature now would cover, and how many wait beyond it; null while the log is read. */
+  protected readonly toSign = computed(() => {
+    const log = this.log();
+    return log === null || this.signatureRecords() === null ? null : readingsToSign(log.entries, this.signedIds(), this.auth.activeUserId());
+  });
+  /**
+   * A signature the active official made on this device whose picture was not saved (the save failed, or
+   * the app was closed in between): the next Sign saves the picture for it instead of signing again.
+   */
+  protected readonly pictureOwed = computed(() =>
+    this.picturesKnown()
+      ? (this.signatures().find((line) => !line.hasPicture && line.deviceId === this.store.deviceId && line.officialId === this.auth.activeUserId()) ?? null)
+      : null,
+  );
+  protected readonly hasReadings = computed(() => (this.log()?.entries.length ?? 0) > 0);
+  protected readonly activeUserId = this.auth.activeUserId;
+  protected readonly statement = signingStatement;
+  protected readonly isSigning = signal(false);
+  protected readonly signProblem = signal<string | null>(null);
+  protected readonly signedMessage = signal<string | null>(null);
+  private readonly signaturePad = viewChild(SignaturePadField);
 
   protected readonly countdown = computed<CountdownPanel>(() => {
     const profile = this.profile();
@@ -111,6 +132,20 @@ export class ControlSteelPage {
 
   protected readonly screenAwake = keepScreenAwake();
 
+  /** This competition's records of one kind, kept up to date; a failed read is said in words. */
+  private watch(kind: RecordKind): Observable<LocalRecord[]> {
+    return toObservable(this.id).pipe(
+      switchMap((id) =>
+        this.store.watchRecords(id, kind).pipe(
+          catchError((error: unknown) => {
+            this.logProblem.set(messageOf(error));
+            return of<LocalRecord[]>([]);
+          }),
+        ),
+      ),
+    );
+  }
+
   constructor() {
     inject(LastScreen).rememberWhileShown();
     effect(() => {
@@ -121,7 +156,47 @@ export class ControlSteelPage {
   }
 
   protected canCorrect(entry: ControlLogEntry): boolean {
-    return !entry.isCorrected && entry.officialId === this.auth.activeUserId();
+    return !entry.isCorrected && !this.signedIds().has(entry.id) && entry.officialId === this.auth.activeUserId();
+  }
+
+  /**
+   * Signs the readings not yet signed (those listed on screen), then keeps the signature's picture as it
+   * is, attached to the signature. When only the picture is owed, it is saved for that signature.
+   */
+  protected async sign(picture: Blob): Promise<void> {
+    if (this.isSigning()) return;
+    this.signProblem.set(null);
+    this.signedMessage.set(null);
+    const owed = this.pictureOwed();
+    const readings = this.toSign()?.readings ?? [];
+    if (!owed && readings.length === 0) {
+      this.signProblem.set('There is no unsigned reading on this device to sign.');
+      return;
+    }
+    this.isSigning.set(true);
+    const count = owed?.readingCount ?? readings.length;
+    let signatureId = owed?.id ?? null;
+    try {
+      signatureId ??= (
+        await this.store.createRecord('log-signature', this.id(), 'start', {
+          log: 'control-steel',
+          readingIds: readings.map((reading) => reading.id),
+          signedAt: new Date(this.clock()).toISOString(),
+          statement: signingStatement,
+        })
+      ).record.id;
+      await this.store.attachFileAsIs(signatureId, picture, 'signature', 'Signature under the control steel log');
+      this.signaturePad()?.clear();
+      this.signedMessage.set(`✓ Signed on this device ${clockTime(this.clock(), { seconds: true })}: ${readingCount(count)} in the signed log.`);
+    } catch (error) {
+      this.signProblem.set(
+        signatureId === null
+          ? `Not signed. ${messageOf(error)}`
+          : `The log is signed (${readingCount(count)} frozen), but the picture of the signature was NOT saved. ${messageOf(error)} Sign again to save the picture.`,
+      );
+    } finally {
+      this.isSigning.set(false);
+    }
   }
 
   protected setInstrument(event: Event): void {
@@ -202,6 +277,11 @@ export class ControlSteelPage {
       this.isSavingCorrection.set(false);
     }
   }
+}
+
+/** "1 reading", "3 readings". */
+function readingCount(count: number): string {
+  return `${count} ${count === 1 ? 'reading' : 'readings'}`;
 }
 
 // RecordRefusedError, StorageFullError and DeviceStoreUnavailableError already speak to the official.
