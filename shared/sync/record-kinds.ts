@@ -25,13 +25,20 @@ export const recordFieldSchemas = {
   'start-check': z.strictObject({
     run: z.number().int().min(1).max(20),
     bib: z.number().int().min(1).max(9999),
+    /** An athlete may present more than one sled in a run (natural track); most present one. */
+    sled: z.number().int().min(1).max(9).default(1),
     status: z.enum(['in-progress', 'cleared', 'referred', 'violation', 'withdrawn']),
+    /** When the check began: from then on the sled is closed to preparation. */
     beganAt: isoTime,
+    /** When the sled left the start; until then a cleared sled counts as waiting at the start. */
+    startedAt: isoTime.nullable().default(null),
     note: z.string().max(2000).default(''),
   }),
   measurement: z.strictObject({
     checkId: z.uuid(),
     what: z.string().min(1).max(80),
+    /** Where on the sled, when it matters (a steel temperature's steel and spot, e.g. "left:2"). */
+    place: z.string().max(40).nullable().default(null),
     value: measurementSchema,
     takenAt: isoTime,
     instrumentId: z.string().min(1).max(64).nullable().default(null),
@@ -41,6 +48,9 @@ export const recordFieldSchemas = {
     checkId: z.uuid(),
     rule: z.string().min(1).max(200),
     measured: z.string().max(200),
+    /** The measurements the verdict was reached on, and the instrument that took them. */
+    measurementIds: z.array(z.uuid()).max(20).default([]),
+    instrumentId: z.string().min(1).max(64).nullable().default(null),
     note: z.string().max(2000).default(''),
     decision: z.enum(['pending', 'upheld', 'dismissed']).default('pending'),
   }),
@@ -76,6 +86,6 @@ export const appendOnlyKinds: ReadonlySet<RecordKind> = new Set(['control-readin
 
 /** Records that must be unique: a second one is kept, but as a conflict for the area leader. */
 export function naturalKey(kind: RecordKind, competitionId: string, fields: Record<string, unknown>): string | null {
-  if (kind === 'start-check') return `start-check|${competitionId}|${String(fields['run'])}|${String(fields['bib'])}`;
+  if (kind === 'start-check') return `start-check|${competitionId}|${String(fields['run'])}|${String(fields['bib'])}|${String(fields['sled'] ?? 1)}`;
   return null;
 }
