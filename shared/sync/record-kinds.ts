@@ -54,6 +54,19 @@ export const recordFieldSchemas = {
     note: z.string().max(2000).default(''),
     decision: z.enum(['pending', 'upheld', 'dismissed']).default('pending'),
   }),
+  /**
+   * An athlete's own check before the official one (a steel temperature on a natural track, a weight on
+   * the spare scale on an artificial track): shown to the athlete, never counted as a violation.
+   */
+  'courtesy-reading': z.strictObject({
+    bib: z.number().int().min(1).max(9999),
+    what: z.enum(['steel temperature', 'athlete with sled']),
+    value: measurementSchema,
+    takenAt: isoTime,
+    instrumentId: z.string().min(1).max(64).nullable().default(null),
+    note: z.string().max(500).default(''),
+    ...correction,
+  }),
   /** A photo or certificate attached to a record; the file itself goes up separately, named by its SHA-256. */
   photo: z.strictObject({
     of: z.uuid(),
@@ -82,7 +95,7 @@ export const recordFieldSchemas = {
 
 export type RecordKind = keyof typeof recordFieldSchemas;
 export const recordKinds = Object.keys(recordFieldSchemas) as RecordKind[];
-export const appendOnlyKinds: ReadonlySet<RecordKind> = new Set(['control-reading', 'measurement', 'photo', 'log-signature']);
+export const appendOnlyKinds: ReadonlySet<RecordKind> = new Set(['control-reading', 'measurement', 'courtesy-reading', 'photo', 'log-signature']);
 
 /** Records that must be unique: a second one is kept, but as a conflict for the area leader. */
 export function naturalKey(kind: RecordKind, competitionId: string, fields: Record<string, unknown>): string | null {

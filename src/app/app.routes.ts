@@ -33,6 +33,12 @@ export const routes: Routes = [
     loadComponent: () => import('./start-area/checks/start-check-page').then((m) => m.StartCheckPage),
   },
   {
+    path: 'competitions/:id/start/courtesy',
+    title: 'Courtesy checks · Rimelog',
+    canActivate: [competitionRoleGuard],
+    loadComponent: () => import('./start-area/courtesy/courtesy-page').then((m) => m.CourtesyPage),
+  },
+  {
     path: 'sign-in',
     title: 'Sign in · Rimelog',
     loadComponent: () => import('./auth/sign-in-page').then((m) => m.SignInPage),

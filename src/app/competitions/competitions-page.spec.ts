@@ -72,9 +72,9 @@ describe('CompetitionsPage', () => {
     await fixture.whenStable();
 
     const rows = await (await harnesses.getHarness(MatTableHarness)).getCellTextByColumnName();
-    expect(rows['start']?.text).toEqual(['Control steelStart checks', '—']);
+    expect(rows['start']?.text).toEqual(['Control steelStart checksCourtesy checks', '—']);
     const links = [...(fixture.nativeElement as HTMLElement).querySelectorAll<HTMLAnchorElement>('.start-links a')].map((a) => a.getAttribute('href'));
-    expect(links).toEqual([`/competitions/${raceId}/start/control-steel`, `/competitions/${raceId}/start/checks`]);
+    expect(links).toEqual([`/competitions/${raceId}/start/control-steel`, `/competitions/${raceId}/start/checks`, `/competitions/${raceId}/start/courtesy`]);
     localStorage.clear();
   });
 

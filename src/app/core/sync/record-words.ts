@@ -9,6 +9,7 @@ const kindNames: Record<RecordKind, { one: string; many: string }> = {
   violation: { one: 'violation', many: 'violations' },
   photo: { one: 'photo', many: 'photos' },
   'log-signature': { one: 'log signature', many: 'log signatures' },
+  'courtesy-reading': { one: 'courtesy reading', many: 'courtesy readings' },
 };
 
 const actionWords: Record<SyncOp['action'], string> = {
@@ -70,6 +71,11 @@ function fieldSummary(kind: RecordKind, fields: Record<string, unknown>): string
     case 'photo':
       add('', text('purpose'));
       add('', text('caption'));
+      break;
+    case 'courtesy-reading':
+      add('bib', number('bib'));
+      add('', text('what'));
+      add('', measured('value'));
       break;
     case 'log-signature': {
       add('', text('log') === 'control-steel' ? 'control steel log' : text('log'));

@@ -55,6 +55,15 @@ function setUp(change: (host: Host) => void = () => {}) {
 }
 
 describe('GloveKeypad', () => {
+  it('when the host has saved a value and clears the keypad, then the next value starts from nothing', () => {
+    const { fixture, press, display, values } = setUp();
+    press('1', '.', '2', 'OK');
+    expect(values()).toEqual([12]);
+    fixture.debugElement.query((node) => node.componentInstance instanceof GloveKeypad).componentInstance.clear();
+    fixture.detectChanges();
+    expect(display()).toBe('No value yet');
+  });
+
   it('when shown, then it names the value, its range and unit, and no text field is there to open the phone keyboard', () => {
     const { element, display } = setUp();
     expect(element.querySelector('.label')?.textContent).toBe('Steel temperature');

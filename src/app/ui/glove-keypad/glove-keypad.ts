@@ -90,6 +90,11 @@ export class GloveKeypad {
     }
   }
 
+  /** Empties the entry for the next value (a host calls it once the last value is saved). */
+  clear(): void {
+    this.press('clear');
+  }
+
   protected ok(): void {
     if (this.typedProblem()) return;
     const { tenths, problem } = commitEntry(this.entry(), this.range(), this.unit());
