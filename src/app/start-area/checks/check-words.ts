@@ -15,8 +15,12 @@ export interface CheckRow {
   id: string;
   run: number;
   bib: number;
+  /** Which of the athlete's sleds (most present one). */
+  sled: number;
   status: CheckStatus;
   beganAt: string;
+  /** When the sled left the start; null while it has not. */
+  startedAt: string | null;
   note: string;
   /** The server has not confirmed this check's latest change yet. */
   onlyHere: boolean;
@@ -28,8 +32,10 @@ export function checkRowOf(record: LocalRecord): CheckRow {
     id: record.id,
     run: Number(f['run']),
     bib: Number(f['bib']),
+    sled: typeof f['sled'] === 'number' ? f['sled'] : 1,
     status: f['status'] as CheckStatus,
     beganAt: String(f['beganAt']),
+    startedAt: typeof f['startedAt'] === 'string' ? f['startedAt'] : null,
     note: typeof f['note'] === 'string' ? f['note'] : '',
     onlyHere: record.version === null,
   };
