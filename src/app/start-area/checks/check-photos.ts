@@ -14,19 +14,19 @@ interface ShownPhoto {
 }
 
 /**
- * Evidence photos of one check: taken with the device camera (or chosen from its files), scaled and saved
- * on this device at once, uploaded after the check has reached the server.
+ * Evidence photos of one record (a check, a violation): taken with the device camera (or chosen from its
+ * files), scaled and saved on this device at once, uploaded after that record has reached the server.
  */
 @Component({
   selector: 'rl-check-photos',
   changeDetection: ChangeDetectionStrategy.OnPush,
   imports: [MatButtonModule],
   template: `
-    <section class="stack" aria-labelledby="photos-title">
-      <h2 id="photos-title">Photos</h2>
+    <section class="stack" [attr.aria-labelledby]="'photos-title-' + of()">
+      <h2 [id]="'photos-title-' + of()">{{ heading() }}</h2>
       <div class="actions">
         <button mat-stroked-button type="button" (click)="camera.click()" [disabled]="busy()">
-          {{ busy() ? 'Saving the photo…' : '📷 Take a photo' }}
+          {{ busy() ? 'Saving the photo…' : addLabel() }}
         </button>
         <input #camera type="file" name="photo" accept="image/*" capture="environment" hidden (change)="add(camera)" />
       </div>
@@ -43,7 +43,7 @@ interface ShownPhoto {
           @for (photo of photos(); track photo.id) {
             <li>
               <figure>
-                <img [src]="urls()[photo.sha256] ?? ''" [alt]="'Photo ' + ($index + 1) + ' of this check'" />
+                <img [src]="urls()[photo.sha256] ?? ''" [alt]="'Photo ' + ($index + 1) + ' of ' + subject()" />
                 <figcaption>{{ photo.takenAt.slice(11, 16) }}{{ photo.onlyHere ? ' · only on this device' : '' }}</figcaption>
               </figure>
             </li>
@@ -57,12 +57,17 @@ interface ShownPhoto {
 export class CheckPhotos {
   private readonly store = inject(DeviceStore);
   readonly competitionId = input.required<string>();
-  readonly checkId = input.required<string>();
+  /** The record the photos show. */
+  readonly of = input.required<string>();
+  readonly heading = input('Photos');
+  readonly addLabel = input('📷 Take a photo');
+  /** What the photos show, for their alternative text: "this check", "the violation". */
+  readonly subject = input('this check');
 
   private readonly records = toSignal(toObservable(this.competitionId).pipe(switchMap((id) => this.store.watchRecords(id, 'photo'))), { initialValue: [] });
   readonly photos = computed<ShownPhoto[]>(() =>
     this.records()
-      .filter((r) => r.fields['of'] === this.checkId())
+      .filter((r) => r.fields['of'] === this.of())
       .map((r) => ({
         id: r.id,
         sha256: String(r.fields['sha256']),
@@ -101,7 +106,7 @@ export class CheckPhotos {
     this.saved.set(null);
     this.problem.set(null);
     try {
-      await this.store.attachPhoto(this.checkId(), file, 'evidence');
+      await this.store.attachPhoto(this.of(), file, 'evidence');
       this.saved.set('Photo saved on this device');
     } catch (error) {
       this.problem.set(error instanceof Error ? error.message : String(error));
