@@ -33,6 +33,7 @@ import { demoPassword } from '../server/ops/demo-users';
 import { freePort, startLocalPostgres } from '../server/ops/postgres';
 import { chromiumPath } from '../tests/support/browser';
 import { discardingMailer } from '../tests/support/fake-mail';
+import { keyIn } from '../tests/support/glove-keypad-keys';
 
 const readings = 200;
 const warmUpReadings = 5;
@@ -115,16 +116,6 @@ const readMarks = (page: Page) =>
     const { okClicks, commits, commitStarts, savedShown } = (globalThis as unknown as BenchWindow).rimelogBench;
     return { okClicks, commits, commitStarts, savedShown };
   });
-
-/** Keys a control steel reading on the glove keypad, e.g. '-4.9'. */
-async function keyIn(page: Page, value: string): Promise<void> {
-  const keypad = page.locator('rl-glove-keypad');
-  for (const key of value) {
-    if (key === '-') await keypad.getByRole('button', { name: 'Change the sign, plus or minus' }).click();
-    else if (key === '.') await keypad.getByRole('button', { name: 'Decimal point' }).click();
-    else await keypad.getByRole('button', { name: key, exact: true }).click();
-  }
-}
 
 /** Between -0.1 and -15.0 °C, so every reading is in range. */
 function readingText(n: number): string {

@@ -1,6 +1,6 @@
 import type { Page } from 'playwright-core';
 import { describe, expect, it } from 'vitest';
-import { demoPassword } from '../../server/ops/demo-users';
+import { signInInBrowser } from '../support/browser-sign-in';
 import { useServerAndBrowser } from '../support/e2e-fixture';
 import { buttonBoxes, contrastOf, expectGloveSized } from '../support/glove-checks';
 
@@ -17,11 +17,7 @@ async function openHome(): Promise<Page> {
 async function signedInPage(email: string): Promise<Page> {
   const context = await fixture.browser.newContext({ viewport: { width: 412, height: 915 }, serviceWorkers: 'block' });
   const page = await context.newPage();
-  await page.goto(`${fixture.server.url}/sign-in`);
-  await page.locator('input[name=email]').fill(email);
-  await page.locator('input[name=password]').fill(demoPassword);
-  await page.getByRole('button', { name: 'Sign in' }).click();
-  await page.waitForURL((url) => url.pathname === '/');
+  await signInInBrowser(page, fixture.server.url, email);
   await page.locator('td.mat-column-name').first().waitFor();
   return page;
 }

@@ -2,6 +2,7 @@ import type { BrowserContext, Page } from 'playwright-core';
 import { describe, expect, it } from 'vitest';
 import { signInInBrowser } from '../support/browser-sign-in';
 import { useServerAndBrowser } from '../support/e2e-fixture';
+import { keyIn } from '../support/glove-keypad-keys';
 import { bandedPng } from '../support/test-png';
 
 const fixture = useServerAndBrowser();
@@ -32,16 +33,6 @@ async function beginCheck(page: Page, bib: number): Promise<void> {
   await page.locator('input[name=bib]').fill(String(bib));
   await page.getByRole('button', { name: 'Begin check' }).click();
   await page.getByRole('heading', { name: `Run 1 · Bib ${bib}` }).waitFor();
-}
-
-/** Keys a value on the glove keypad: digits, '.', and '-' for the ± key. */
-async function keyIn(page: Page, value: string): Promise<void> {
-  const keypad = page.locator('rl-glove-keypad');
-  for (const key of value) {
-    if (key === '-') await keypad.getByRole('button', { name: 'Change the sign, plus or minus' }).click();
-    else if (key === '.') await keypad.getByRole('button', { name: 'Decimal point' }).click();
-    else await keypad.getByRole('button', { name: key, exact: true }).click();
-  }
 }
 
 async function goOnline(context: BrowserContext): Promise<number> {

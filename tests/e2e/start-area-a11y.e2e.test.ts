@@ -2,8 +2,9 @@ import { readFileSync } from 'node:fs';
 import { createRequire } from 'node:module';
 import type { Page } from 'playwright-core';
 import { describe, expect, it } from 'vitest';
-import { demoPassword } from '../../server/ops/demo-users';
+import { signInInBrowser } from '../support/browser-sign-in';
 import { useServerAndBrowser } from '../support/e2e-fixture';
+import { keyIn } from '../support/glove-keypad-keys';
 import { buttonBoxes, expectGloveSized, type Box } from '../support/glove-checks';
 
 // Every start-area screen, in both themes, through axe-core (WCAG 2.x A and AA, plus the 7:1 text
@@ -72,24 +73,10 @@ async function keypadKeyBoxes(page: Page): Promise<Box[]> {
 async function signedIn(theme: 'glare' | 'dark'): Promise<Page> {
   const context = await fixture.browser.newContext({ viewport: { width: 412, height: 915 }, serviceWorkers: 'block' });
   const page = await context.newPage();
-  await page.goto(`${fixture.server.url}/sign-in`);
-  await page.locator('input[name=email]').fill('start-official@frostbarrow.test');
-  await page.locator('input[name=password]').fill(demoPassword);
-  await page.getByRole('button', { name: 'Sign in' }).click();
-  await page.waitForURL((url) => url.pathname === '/');
+  await signInInBrowser(page, fixture.server.url, 'start-official@frostbarrow.test');
   if (theme === 'dark') await page.getByRole('button', { name: 'Dark screen' }).click();
   expect(await page.evaluate(() => document.documentElement.className)).toContain(`theme-${theme}`);
   return page;
-}
-
-/** Keys a value on the first glove keypad: digits, '.', and '-' for the ± key. */
-async function keyIn(page: Page, value: string): Promise<void> {
-  const keypad = page.locator('rl-glove-keypad').first();
-  for (const key of value) {
-    if (key === '-') await keypad.getByRole('button', { name: 'Change the sign, plus or minus' }).click();
-    else if (key === '.') await keypad.getByRole('button', { name: 'Decimal point' }).click();
-    else await keypad.getByRole('button', { name: key, exact: true }).click();
-  }
 }
 
 let nextBib = 41;

@@ -1,4 +1,5 @@
 import type { LocalRecord } from '../../core/device-store/device-db';
+import { localRecord } from '../../core/device-store/testing/local-record';
 import { profileWith } from '../../../../shared/rules/test-profiles';
 import type { TimedReading } from '../../../../shared/rules/temperature';
 import { judgeSpots } from '../steel-temperatures/steel-spots';
@@ -14,21 +15,7 @@ let nextId = 1;
 
 function record(kind: LocalRecord['kind'], fields: Record<string, unknown>, changes: Partial<LocalRecord> = {}): LocalRecord {
   const id = `0190a7e2-0000-7000-8000-${String(nextId++).padStart(12, '0')}`;
-  return {
-    id,
-    kind,
-    competitionId: '0190a7e2-0000-7000-8000-000000000001',
-    area: 'start',
-    fields: fields as LocalRecord['fields'],
-    createdBy: 'official-one',
-    deviceId: 'device',
-    hlc: '',
-    deleted: false,
-    version: null,
-    supersedes: null,
-    lastLocalChange: null,
-    ...changes,
-  };
+  return localRecord(kind, id, fields, { deviceId: 'device', supersedes: null, ...changes });
 }
 
 const steelReading = (place: string, tenths: number, minute = 5, changes: Record<string, unknown> = {}) =>

@@ -1,28 +1,13 @@
 import type { LocalRecord } from '../../core/device-store/device-db';
+import { localRecord } from '../../core/device-store/testing/local-record';
 import { countdownClock } from './clock-time';
 import { controlLog, currentReadings } from './control-log';
 
 const competitionId = '0190a7e2-0000-7000-8000-000000000001';
 const local = (hours: number, minutes: number) => new Date(2027, 0, 14, hours, minutes).toISOString();
 
-function record(id: string, hlc: string, fields: Record<string, unknown>, more: Partial<LocalRecord> = {}): LocalRecord {
-  const supersedes = typeof fields['supersedes'] === 'string' ? fields['supersedes'] : null;
-  return {
-    id,
-    kind: 'control-reading',
-    competitionId,
-    area: 'start',
-    fields: fields as LocalRecord['fields'],
-    createdBy: 'official-one',
-    deviceId: 'device-1',
-    hlc,
-    deleted: false,
-    version: 3,
-    supersedes,
-    lastLocalChange: null,
-    ...more,
-  };
-}
+const record = (id: string, hlc: string, fields: Record<string, unknown>, more: Partial<LocalRecord> = {}): LocalRecord =>
+  localRecord('control-reading', id, fields, { competitionId, hlc, version: 3, ...more });
 
 const first = '0190a7e2-0000-7000-8000-0000000000d1';
 const second = '0190a7e2-0000-7000-8000-0000000000d2';

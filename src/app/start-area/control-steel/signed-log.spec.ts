@@ -1,4 +1,5 @@
 import type { LocalRecord } from '../../core/device-store/device-db';
+import { localRecord } from '../../core/device-store/testing/local-record';
 import { controlLog } from './control-log';
 import { logSignatures, maxReadingsPerSignature, readingsToSign, signedReadingIds } from './signed-log';
 
@@ -6,23 +7,8 @@ const competitionId = '0190a7e2-0000-7000-8000-000000000001';
 const local = (hours: number, minutes: number) => new Date(2027, 0, 14, hours, minutes).toISOString();
 const id = (n: number) => `0190a7e2-0000-7000-8000-${n.toString(16).padStart(12, '0')}`;
 
-function record(kind: LocalRecord['kind'], recordId: string, hlc: string, fields: Record<string, unknown>, more: Partial<LocalRecord> = {}): LocalRecord {
-  return {
-    id: recordId,
-    kind,
-    competitionId,
-    area: 'start',
-    fields: fields as LocalRecord['fields'],
-    createdBy: 'official-one',
-    deviceId: 'device-1',
-    hlc,
-    deleted: false,
-    version: 3,
-    supersedes: typeof fields['supersedes'] === 'string' ? fields['supersedes'] : null,
-    lastLocalChange: null,
-    ...more,
-  };
-}
+const record = (kind: LocalRecord['kind'], recordId: string, hlc: string, fields: Record<string, unknown>, more: Partial<LocalRecord> = {}): LocalRecord =>
+  localRecord(kind, recordId, fields, { competitionId, hlc, version: 3, ...more });
 
 const reading = (n: number, at: string, more: Record<string, unknown> = {}) =>
   record('control-reading', id(n), `00000000000000${n}-00000-a`, { reading: { tenths: -60 - n, unit: 'celsius' }, takenAt: at, instrumentId: 'P-7', ice: null, air: null, ...more });

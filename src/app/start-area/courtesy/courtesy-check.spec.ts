@@ -1,4 +1,4 @@
-import type { LocalRecord } from '../../core/device-store/device-db';
+import { localRecord } from '../../core/device-store/testing/local-record';
 import { courtesyCheckOf, courtesyLines } from './courtesy-check';
 
 describe('courtesyCheckOf', () => {
@@ -19,20 +19,7 @@ describe('courtesyCheckOf', () => {
 });
 
 describe('courtesyLines', () => {
-  const record = (id: string, fields: Record<string, unknown>, version: number | null = null): LocalRecord => ({
-    id,
-    kind: 'courtesy-reading',
-    competitionId: '0193a5c0-0000-7000-8000-0000000000a1',
-    area: 'start',
-    fields: fields as LocalRecord['fields'],
-    createdBy: 'official-one',
-    deviceId: 'device-1',
-    hlc: '1',
-    deleted: false,
-    version,
-    supersedes: null,
-    lastLocalChange: null,
-  });
+  const record = (id: string, fields: Record<string, unknown>, version: number | null = null) => localRecord('courtesy-reading', id, fields, { version });
 
   it('when readings are on the device, then they read newest first with their value and whether the server has them', () => {
     const lines = courtesyLines([
