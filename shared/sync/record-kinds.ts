@@ -32,6 +32,10 @@ export const recordFieldSchemas = {
     beganAt: isoTime,
     /** When the sled left the start; until then a cleared sled counts as waiting at the start. */
     startedAt: isoTime.nullable().default(null),
+    /** The equipment checklist: each item of the rules' list confirmed present (true) or missing (false). */
+    equipment: z.record(z.string().max(40), z.boolean()).nullable().default(null),
+    /** The bib worn and readable (true), wrong or missing (false), not looked at yet (null). */
+    bibConfirmed: z.boolean().nullable().default(null),
     note: z.string().max(2000).default(''),
   }),
   measurement: z.strictObject({
