@@ -1,0 +1,101 @@
+import { ChangeDetectionStrategy, Component, computed, input, linkedSignal, output } from '@angular/core';
+import { MatButtonModule } from '@angular/material/button';
+import { judgeEquipment } from '../../../../shared/rules/equipment';
+import { RulesInputError } from '../../../../shared/rules/rules-error';
+import type { RulesProfile } from '../../../../shared/rules/rules-profile';
+import { VerdictCard } from '../verdict/verdict-card';
+
+export interface EquipmentAnswers {
+  /** Only the items answered so far, by equipment id. */
+  present: Record<string, boolean>;
+  bibConfirmed: boolean;
+}
+
+/** One row of the checklist: the bib first, then each equipment item of the profile. */
+interface Row {
+  key: string;
+  label: string;
+  answer: boolean | undefined;
+}
+
+const bibKey = 'bib';
+
+export const bibNotConfirmedLine = 'Bib not confirmed: the sled does not start until the bib is right.';
+
+/**
+ * The first start check on both track types: the bib the start list expects and every item of the safety
+ * equipment, each marked present or missing. The host saves each `answered` and passes the answers back in.
+ */
+@Component({
+  selector: 'rl-equipment-step',
+  changeDetection: ChangeDetectionStrategy.OnPush,
+  imports: [MatButtonModule, VerdictCard],
+  templateUrl: './equipment-step.html',
+  styleUrl: './equipment-step.scss',
+  host: { class: 'equipment-step' },
+})
+export class EquipmentStep {
+  readonly profile = input.required<RulesProfile>();
+  /** The bib the start list expects on this sled. */
+  readonly bib = input.required<number>();
+  /** The equipment answers saved so far; answers for items no longer on the profile's list are ignored. */
+  readonly saved = input<Record<string, boolean> | null>(null);
+  /**
+   * The saved bib answer. `answered` carries `bibConfirmed: false` both before the bib is answered and when
+   * it is marked missing, so a saved false keeps the answer given here and, on a fresh screen, is still to answer.
+   */
+  readonly savedBibConfirmed = input<boolean | null>(null);
+  readonly answered = output<EquipmentAnswers>();
+
+  private readonly present = linkedSignal<Record<string, boolean>>(() => {
+    const known = new Set(this.profile().equipment.map((item) => item.id));
+    return Object.fromEntries(Object.entries(this.saved() ?? {}).filter(([id]) => known.has(id)));
+  });
+  private readonly bibAnswer = linkedSignal<boolean | null, boolean | undefined>({
+    source: this.savedBibConfirmed,
+    computation: (saved, previous) => {
+      if (saved === true) return true;
+      return saved === false ? previous?.value : undefined;
+    },
+  });
+
+  protected readonly rows = computed<Row[]>(() => [
+    { key: bibKey, label: `Bib ${this.bib()} worn and readable`, answer: this.bibAnswer() },
+    ...this.profile().equipment.map((item) => ({ key: item.id, label: item.label, answer: this.present()[item.id] })),
+  ]);
+
+  protected readonly stillToAnswer = computed(() =>
+    this.rows()
+      .filter((row) => row.answer === undefined)
+      .map((row) => row.label),
+  );
+
+  /** Judged only once every row is answered; the engine's refusal is shown in its own words. */
+  protected readonly judgement = computed(() => {
+    if (this.stillToAnswer().length > 0) return null;
+    try {
+      return { verdict: judgeEquipment({ profile: this.profile(), present: this.present() }), refusal: null };
+    } catch (error) {
+      if (error instanceof RulesInputError) return { verdict: null, refusal: error.message };
+      throw error;
+    }
+  });
+
+  protected readonly bibMissing = computed(() => this.bibAnswer() === false);
+  protected readonly bibNotConfirmedLine = bibNotConfirmedLine;
+
+  protected answerWords(answer: boolean | undefined): string {
+    if (answer === undefined) return 'Not answered yet';
+    return answer ? 'Marked present' : 'Marked missing';
+  }
+
+  protected mark(row: Row, isPresent: boolean): void {
+    if (row.answer === isPresent) return;
+    if (row.key === bibKey) {
+      this.bibAnswer.set(isPresent);
+    } else {
+      this.present.update((present) => ({ ...present, [row.key]: isPresent }));
+    }
+    this.answered.emit({ present: { ...this.present() }, bibConfirmed: this.bibAnswer() === true });
+  }
+}
