@@ -222,6 +222,9 @@ export const startListEntries = pgTable(
     athlete: text('athlete').notNull(),
     /** The second athlete of a doubles sled; null for singles. */
     secondAthlete: text('second_athlete'),
+    /** Official body weights in tenths of a kg (artificial track, for the upper bound on the scale); null while unknown. */
+    officialBodyWeight: integer('official_body_weight'),
+    secondOfficialBodyWeight: integer('second_official_body_weight'),
   },
   (table) => [
     primaryKey({ name: 'start_list_entries_bib_pk', columns: [table.competitionId, table.bib] }),
@@ -229,6 +232,10 @@ export const startListEntries = pgTable(
     check('start_list_entries_discipline_check', sql`${table.discipline} in (${sqlList(disciplines)})`),
     check('start_list_entries_positive_check', sql`${table.bib} > 0 and ${table.startOrder} > 0`),
     check('start_list_entries_doubles_check', sql`(${table.discipline} = 'doubles') = (${table.secondAthlete} is not null)`),
+    check(
+      'start_list_entries_body_weight_check',
+      sql`(${table.officialBodyWeight} is null or ${table.officialBodyWeight} > 0) and (${table.secondOfficialBodyWeight} is null or (${table.secondOfficialBodyWeight} > 0 and ${table.secondAthlete} is not null))`,
+    ),
   ],
 );
 
@@ -246,6 +253,8 @@ export const instruments = pgTable(
     /** The last day its calibration holds. */
     calibratedUntil: date('calibrated_until', { mode: 'string' }).notNull(),
     assignedTo: text('assigned_to').references(() => users.id, { onDelete: 'set null' }),
+    /** A control weight's certified mass in tenths of a kg; null for every other instrument. */
+    nominalMass: integer('nominal_mass'),
     /** The calibration certificate, an upload named by its SHA-256 (it may arrive after the row). */
     certificateSha256: text('certificate_sha256'),
   },
@@ -253,6 +262,7 @@ export const instruments = pgTable(
     unique('instruments_label_unique').on(table.competitionId, table.label),
     check('instruments_purpose_check', sql`${table.purpose} in (${sqlList(instrumentPurposes)})`),
     check('instruments_certificate_check', sql`${table.certificateSha256} ~ '^[0-9a-f]{64}$'`),
+    check('instruments_nominal_mass_check', sql`${table.nominalMass} is null or (${table.purpose} = 'control-weight' and ${table.nominalMass} > 0)`),
   ],
 );
 

@@ -53,14 +53,25 @@ const startOfficial: DemoEmail = 'start-official@frostbarrow.test';
 const startOfficial2: DemoEmail = 'start-official-2@frostbarrow.test';
 const finishOfficial: DemoEmail = 'finish-official@frostbarrow.test';
 
-/** Athletes of our own invention, bibs and start order alike: singles women, singles men, then doubles pairs. */
-function startList(women: string[], men: string[], pairs: [string, string][]): StartListEntry[] {
+/**
+ * Athletes of our own invention, bibs and start order alike: singles women, singles men, then doubles pairs.
+ * On artificial track each comes with an official body weight (tenths of a kg, invented like the names).
+ */
+function startList(women: string[], men: string[], pairs: [string, string][], bodyWeights: number[] = []): StartListEntry[] {
   const sleds = [
     ...women.map((athlete) => ({ discipline: 'singles-women' as const, athlete, secondAthlete: null })),
     ...men.map((athlete) => ({ discipline: 'singles-men' as const, athlete, secondAthlete: null })),
     ...pairs.map(([athlete, secondAthlete]) => ({ discipline: 'doubles' as const, athlete, secondAthlete })),
   ];
-  return sleds.map((sled, i) => ({ bib: i + 1, startOrder: i + 1, ...sled }));
+  let next = 0;
+  const weigh = () => bodyWeights[next++] ?? null;
+  return sleds.map((sled, i) => ({
+    bib: i + 1,
+    startOrder: i + 1,
+    ...sled,
+    officialBodyWeight: weigh(),
+    secondOfficialBodyWeight: sled.secondAthlete === null ? null : weigh(),
+  }));
 }
 
 export const demoStartLists: Record<string, StartListEntry[]> = {
@@ -73,6 +84,8 @@ export const demoStartLists: Record<string, StartListEntry[]> = {
     ['Pella Ruskwell', 'Quinna Dovemarsh', 'Rosk Aldervane', 'Sanna Welkby'],
     ['Tobin Larchmere', 'Ulf Crannock', 'Vesko Pindarel', 'Wenzel Thornaby', 'Yarro Fellgate'],
     [['Zeno Brackley', 'Anwe Skerrit'], ['Birk Hollowell', 'Cato Renfrith'], ['Dree Mossop', 'Elan Quarrington']],
+    // Women, men, then each pair's two athletes; some below the demo reference weights, so extra weight applies.
+    [598, 641, 662, 705, 702, 748, 763, 781, 719, 688, 742, 701, 736, 765, 693],
   ),
 };
 
@@ -83,34 +96,40 @@ interface DemoInstrument {
   /** Days after the race's first run its calibration holds; negative: it ran out before the race. */
   calibratedForDays: number;
   assignedTo: DemoEmail | null;
+  /** Control weights: the certified mass in tenths of a kg. */
+  nominalMass?: number;
 }
 
 // One sled pyrometer in each race ran out of calibration four months before the race, to show the refusal
-// on race day and in the weeks of trying the demo before it.
+// on race day and in the weeks of trying the demo before it. The first start official holds a full start kit,
+// so one person can try a whole start check; the second holds a sled pyrometer of their own.
 export const demoInstruments: Record<string, DemoInstrument[]> = {
   [demoCompetitions[0].id]: [
     { id: '0193a5c0-0001-7000-8000-000000000101', label: 'PYR-01', purpose: 'control-steel-pyrometer', calibratedForDays: 180, assignedTo: startOfficial },
     { id: '0193a5c0-0001-7000-8000-000000000102', label: 'PYR-02', purpose: 'sled-pyrometer', calibratedForDays: 180, assignedTo: startOfficial },
     { id: '0193a5c0-0001-7000-8000-000000000103', label: 'PYR-03', purpose: 'sled-pyrometer', calibratedForDays: 180, assignedTo: startOfficial2 },
     { id: '0193a5c0-0001-7000-8000-000000000104', label: 'PYR-04', purpose: 'sled-pyrometer', calibratedForDays: -120, assignedTo: startOfficial },
-    { id: '0193a5c0-0001-7000-8000-000000000105', label: 'SCL-01', purpose: 'scale', calibratedForDays: 365, assignedTo: startOfficial2 },
-    { id: '0193a5c0-0001-7000-8000-000000000106', label: 'CWT-01', purpose: 'control-weight', calibratedForDays: 365, assignedTo: startOfficial2 },
+    { id: '0193a5c0-0001-7000-8000-000000000105', label: 'SCL-01', purpose: 'scale', calibratedForDays: 365, assignedTo: startOfficial },
+    { id: '0193a5c0-0001-7000-8000-000000000106', label: 'CWT-01', purpose: 'control-weight', calibratedForDays: 365, assignedTo: startOfficial, nominalMass: 20 },
     { id: '0193a5c0-0001-7000-8000-000000000107', label: 'GAP-01', purpose: 'gap-probe', calibratedForDays: 365, assignedTo: startOfficial },
-    { id: '0193a5c0-0001-7000-8000-000000000108', label: 'CAL-01', purpose: 'caliper', calibratedForDays: 365, assignedTo: startOfficial2 },
+    { id: '0193a5c0-0001-7000-8000-000000000108', label: 'CAL-01', purpose: 'caliper', calibratedForDays: 365, assignedTo: startOfficial },
+    { id: '0193a5c0-0001-7000-8000-000000000109', label: 'ANG-01', purpose: 'angle-gauge', calibratedForDays: 365, assignedTo: startOfficial },
+    { id: '0193a5c0-0001-7000-8000-00000000010a', label: 'RUL-01', purpose: 'steel-rule', calibratedForDays: 365, assignedTo: startOfficial },
   ],
   [demoCompetitions[2].id]: [
     { id: '0193a5c0-0001-7000-8000-000000000301', label: 'PYR-11', purpose: 'control-steel-pyrometer', calibratedForDays: 180, assignedTo: startOfficial },
     { id: '0193a5c0-0001-7000-8000-000000000302', label: 'PYR-12', purpose: 'sled-pyrometer', calibratedForDays: 180, assignedTo: startOfficial },
     { id: '0193a5c0-0001-7000-8000-000000000303', label: 'PYR-13', purpose: 'sled-pyrometer', calibratedForDays: 180, assignedTo: startOfficial2 },
     { id: '0193a5c0-0001-7000-8000-000000000304', label: 'PYR-14', purpose: 'sled-pyrometer', calibratedForDays: -120, assignedTo: startOfficial },
-    { id: '0193a5c0-0001-7000-8000-000000000305', label: 'SCL-11', purpose: 'scale', calibratedForDays: 365, assignedTo: startOfficial2 },
+    { id: '0193a5c0-0001-7000-8000-000000000305', label: 'SCL-11', purpose: 'scale', calibratedForDays: 365, assignedTo: startOfficial },
     // Where an artificial-track scale stands: at least five control weights.
     ...[1, 2, 3, 4, 5].map((n) => ({
       id: `0193a5c0-0001-7000-8000-00000000031${n}`,
       label: `CWT-1${n}`,
       purpose: 'control-weight' as const,
       calibratedForDays: 365,
-      assignedTo: startOfficial2,
+      assignedTo: startOfficial,
+      nominalMass: 200,
     })),
     { id: '0193a5c0-0001-7000-8000-000000000306', label: 'GAP-11', purpose: 'gap-probe', calibratedForDays: 365, assignedTo: startOfficial },
     // On artificial track the sled's dimensions are measured at the finish.
@@ -181,8 +200,9 @@ async function seedDemoStartListsAndInstruments(db: Database): Promise<void> {
     await db
       .insert(instruments)
       .values(
-        kit.map(({ calibratedForDays, assignedTo, ...instrument }) => ({
+        kit.map(({ calibratedForDays, assignedTo, nominalMass, ...instrument }) => ({
           ...instrument,
+          nominalMass: nominalMass ?? null,
           competitionId: competition.id,
           calibratedUntil: daysAfter(competition.firstRunOn, calibratedForDays),
           assignedTo: assignedTo === null ? null : (userIdOf.get(assignedTo) ?? null),

@@ -42,6 +42,8 @@ async function loadFieldData(db: Database, competitionId: string): Promise<Field
         discipline: startListEntries.discipline,
         athlete: startListEntries.athlete,
         secondAthlete: startListEntries.secondAthlete,
+        officialBodyWeight: startListEntries.officialBodyWeight,
+        secondOfficialBodyWeight: startListEntries.secondOfficialBodyWeight,
       })
       .from(startListEntries)
       .where(eq(startListEntries.competitionId, competitionId))
@@ -53,6 +55,7 @@ async function loadFieldData(db: Database, competitionId: string): Promise<Field
         purpose: instruments.purpose,
         calibratedUntil: instruments.calibratedUntil,
         assignedTo: instruments.assignedTo,
+        nominalMass: instruments.nominalMass,
         certificateSha256: instruments.certificateSha256,
       })
       .from(instruments)

@@ -18,11 +18,11 @@ const valid: FieldData = {
   },
   profile: { competitionId, frozenAt: '2027-01-09T07:00:00.000Z', profile: acceptDemoValues(shippedProfile('natural', 'national')) },
   startList: [
-    { bib: 1, startOrder: 1, discipline: 'singles-women', athlete: 'Ann Example', secondAthlete: null },
-    { bib: 7, startOrder: 2, discipline: 'doubles', athlete: 'Bo Example', secondAthlete: 'Cy Example' },
+    { bib: 1, startOrder: 1, discipline: 'singles-women', athlete: 'Ann Example', secondAthlete: null, officialBodyWeight: null, secondOfficialBodyWeight: null },
+    { bib: 7, startOrder: 2, discipline: 'doubles', athlete: 'Bo Example', secondAthlete: 'Cy Example', officialBodyWeight: null, secondOfficialBodyWeight: null },
   ],
   instruments: [
-    { id: '0193a5c0-0001-7000-8000-000000000101', label: 'PYR-01', purpose: 'control-steel-pyrometer', calibratedUntil: '2027-07-08', assignedTo: 'u1', certificateSha256: null },
+    { id: '0193a5c0-0001-7000-8000-000000000101', label: 'PYR-01', purpose: 'control-steel-pyrometer', calibratedUntil: '2027-07-08', assignedTo: 'u1', nominalMass: null, certificateSha256: null },
   ],
   officials: [{ userId: 'u1', displayName: 'Test Official', role: 'official', area: 'start' }],
   fetchedAt: '2027-01-09T06:00:00.000Z',

@@ -10,6 +10,7 @@ const instrument = (overrides: Partial<Instrument> = {}): Instrument => ({
   purpose: 'sled-pyrometer',
   calibratedUntil: '2027-07-08',
   assignedTo: pim,
+  nominalMass: null,
   certificateSha256: null,
   ...overrides,
 });

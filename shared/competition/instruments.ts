@@ -52,6 +52,8 @@ export const instrumentSchema = z.object({
   calibratedUntil: z.iso.date('Enter the date as YYYY-MM-DD.'),
   /** The official who alone may use it; null while nobody has been issued it. */
   assignedTo: z.string().min(1).nullable(),
+  /** A control weight's certified mass in tenths of a kg; null for every other instrument. */
+  nominalMass: z.int('A certified mass is kept in whole tenths of a kg.').min(1).max(10000).nullable().default(null),
   /** The calibration certificate, kept as an upload under this SHA-256. */
   certificateSha256: z
     .string()

@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { gapProbeResults } from '../rules/gap-probe';
 import { measurementSchema } from '../rules/measurement';
 
 /**
@@ -36,6 +37,13 @@ export const recordFieldSchemas = {
     equipment: z.record(z.string().max(40), z.boolean()).nullable().default(null),
     /** The bib worn and readable (true), wrong or missing (false), not looked at yet (null). */
     bibConfirmed: z.boolean().nullable().default(null),
+    /** Dimensions judged by eye (front-pin height), by dimension kind: looks right (true) or not (false). */
+    byEye: z.record(z.string().max(40), z.boolean()).nullable().default(null),
+    /** Artificial track: how far the feeler went into the joint between runner and steel, with which probe. */
+    gapProbe: z
+      .strictObject({ result: z.enum(gapProbeResults), instrumentId: z.string().min(1).max(64), takenAt: isoTime })
+      .nullable()
+      .default(null),
     note: z.string().max(2000).default(''),
   }),
   measurement: z.strictObject({
@@ -71,6 +79,30 @@ export const recordFieldSchemas = {
     note: z.string().max(500).default(''),
     ...correction,
   }),
+  /**
+   * The scale proved with control weights of known mass, before weighing in a run: which scale, which
+   * weights, their certified total and what the scale read. `checkId` names the check it was done in, if any.
+   */
+  'scale-proof': z.strictObject({
+    run: z.number().int().min(1).max(20),
+    scaleId: z.string().min(1).max(64),
+    controlWeightIds: z.array(z.string().min(1).max(64)).min(1).max(20),
+    knownWeight: measurementSchema,
+    reading: measurementSchema,
+    takenAt: isoTime,
+    checkId: z.uuid().nullable().default(null),
+    ...correction,
+  }),
+  /** The control steel mounting checklist before the first start; which items apply comes from the profile. */
+  'control-steel-mounting': z.strictObject({
+    height: measurementSchema.nullable().default(null),
+    length: measurementSchema.nullable().default(null),
+    inShade: z.boolean(),
+    awayFromDrafts: z.boolean().nullable().default(null),
+    mountedAt: isoTime,
+    firstStartAt: isoTime,
+    ...correction,
+  }),
   /** A photo or certificate attached to a record; the file itself goes up separately, named by its SHA-256. */
   photo: z.strictObject({
     of: z.uuid(),
@@ -99,7 +131,15 @@ export const recordFieldSchemas = {
 
 export type RecordKind = keyof typeof recordFieldSchemas;
 export const recordKinds = Object.keys(recordFieldSchemas) as RecordKind[];
-export const appendOnlyKinds: ReadonlySet<RecordKind> = new Set(['control-reading', 'measurement', 'courtesy-reading', 'photo', 'log-signature']);
+export const appendOnlyKinds: ReadonlySet<RecordKind> = new Set([
+  'control-reading',
+  'measurement',
+  'courtesy-reading',
+  'scale-proof',
+  'control-steel-mounting',
+  'photo',
+  'log-signature',
+]);
 
 /** Records that must be unique: a second one is kept, but as a conflict for the area leader. */
 export function naturalKey(kind: RecordKind, competitionId: string, fields: Record<string, unknown>): string | null {

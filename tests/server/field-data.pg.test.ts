@@ -58,7 +58,7 @@ describe('GET /api/competitions/:id/field-data', () => {
     const ids = await userIdsByEmail();
     const pim = ids.get('start-official@frostbarrow.test')!;
     const kaja = ids.get('start-official-2@frostbarrow.test')!;
-    expect(body.instruments.map((i) => i.label)).toEqual(['CAL-01', 'CWT-01', 'GAP-01', 'PYR-01', 'PYR-02', 'PYR-03', 'PYR-04', 'SCL-01']);
+    expect(body.instruments.map((i) => i.label)).toEqual(['ANG-01', 'CAL-01', 'CWT-01', 'GAP-01', 'PYR-01', 'PYR-02', 'PYR-03', 'PYR-04', 'RUL-01', 'SCL-01']);
     const byLabel = new Map(body.instruments.map((i) => [i.label, i]));
     expect(byLabel.get('PYR-01')).toMatchObject({ purpose: 'control-steel-pyrometer', assignedTo: pim, calibratedUntil: '2027-07-08' });
     expect(byLabel.get('PYR-02')).toMatchObject({ purpose: 'sled-pyrometer', assignedTo: pim });

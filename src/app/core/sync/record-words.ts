@@ -10,6 +10,8 @@ const kindNames: Record<RecordKind, { one: string; many: string }> = {
   photo: { one: 'photo', many: 'photos' },
   'log-signature': { one: 'log signature', many: 'log signatures' },
   'courtesy-reading': { one: 'courtesy reading', many: 'courtesy readings' },
+  'scale-proof': { one: 'scale proof', many: 'scale proofs' },
+  'control-steel-mounting': { one: 'control steel mounting', many: 'control steel mountings' },
 };
 
 const actionWords: Record<SyncOp['action'], string> = {
@@ -76,6 +78,15 @@ function fieldSummary(kind: RecordKind, fields: Record<string, unknown>): string
       add('bib', number('bib'));
       add('', text('what'));
       add('', measured('value'));
+      break;
+    case 'scale-proof':
+      add('run', number('run'));
+      add('known', measured('knownWeight'));
+      add('read', measured('reading'));
+      break;
+    case 'control-steel-mounting':
+      add('height', measured('height'));
+      add('', fields['inShade'] === true ? 'in shade' : fields['inShade'] === false ? 'not in shade' : null);
       break;
     case 'log-signature': {
       add('', text('log') === 'control-steel' ? 'control steel log' : text('log'));

@@ -1,4 +1,4 @@
-import type { FieldData } from '../../../../../shared/competition/field-data';
+import { fieldDataSchema, type FieldData } from '../../../../../shared/competition/field-data';
 import { acceptDemoValues } from '../../../../../shared/rules/profile-values';
 import { shippedProfile } from '../../../../../shared/rules/shipped-profiles';
 
@@ -6,7 +6,8 @@ import { shippedProfile } from '../../../../../shared/rules/shipped-profiles';
 
 /** A well-formed answer of GET /api/competitions/:id/field-data for `competitionId`. */
 export function fieldDataFor(competitionId: string, fetchedAt = '2027-01-09T06:00:00.000Z'): FieldData {
-  return {
+  // Parsed, so fields the fixture leaves out take their defaults as they do in a server's answer.
+  return fieldDataSchema.parse({
     competitionId,
     competition: {
       id: competitionId,
@@ -29,5 +30,5 @@ export function fieldDataFor(competitionId: string, fetchedAt = '2027-01-09T06:0
     ],
     officials: [{ userId: 'official-one', displayName: 'First Official', role: 'official', area: 'start' }],
     fetchedAt,
-  };
+  });
 }

@@ -1,0 +1,5 @@
+ALTER TABLE "instruments" ADD COLUMN "nominal_mass" integer;--> statement-breakpoint
+ALTER TABLE "start_list_entries" ADD COLUMN "official_body_weight" integer;--> statement-breakpoint
+ALTER TABLE "start_list_entries" ADD COLUMN "second_official_body_weight" integer;--> statement-breakpoint
+ALTER TABLE "instruments" ADD CONSTRAINT "instruments_nominal_mass_check" CHECK ("instruments"."nominal_mass" is null or ("instruments"."purpose" = 'control-weight' and "instruments"."nominal_mass" > 0));--> statement-breakpoint
+ALTER TABLE "start_list_entries" ADD CONSTRAINT "start_list_entries_body_weight_check" CHECK (("start_list_entries"."official_body_weight" is null or "start_list_entries"."official_body_weight" > 0) and ("start_list_entries"."second_official_body_weight" is null or ("start_list_entries"."second_official_body_weight" > 0 and "start_list_entries"."second_athlete" is not null)));
