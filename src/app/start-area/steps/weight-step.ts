@@ -1,12 +1,11 @@
 import { ChangeDetectionStrategy, Component, computed, input, output, signal } from '@angular/core';
 import { formatTenths, measurement, type Measurement } from '../../../../shared/rules/measurement';
-import { RulesInputError } from '../../../../shared/rules/rules-error';
 import type { Discipline, RulesProfile } from '../../../../shared/rules/rules-profile';
-import type { Verdict } from '../../../../shared/rules/verdict';
 import { judgeAthleteWithSled, judgeSledWeight, permittedUpperBound, type PermittedUpperBound } from '../../../../shared/rules/weights';
 import { GloveKeypad } from '../../ui/glove-keypad/glove-keypad';
 import { VerdictCard } from '../verdict/verdict-card';
 import { decidesLine } from '../verdict/verdict-words';
+import { attempt, judged, type StepJudgement } from './step-judgement';
 
 export type WeightReading = 'sled' | 'athlete-with-sled' | 'second-athlete';
 export interface WeighedReading {
@@ -26,25 +25,8 @@ export const weightReadingRanges: Record<WeightReading, { minTenths: number; max
   'second-athlete': { minTenths: 1, maxTenths: 3000 },
 };
 
-type Attempt<T> = { value: T; problem?: undefined } | { value?: undefined; problem: string };
-
-/** Runs the rules engine; a refusal (bad input, a profile gap) comes back as words, never as a pass. */
-function attempt<T>(run: () => T): Attempt<T> {
-  try {
-    return { value: run() };
-  } catch (error) {
-    if (error instanceof RulesInputError) return { problem: error.message };
-    throw error;
-  }
-}
-
 const kg = (tenths: number): string => formatTenths(tenths, 'kilogram');
 const kgTenths = (tenths: number): Measurement => measurement(tenths, 'kilogram');
-
-type Judgement =
-  | { kind: 'waiting'; words: string }
-  | { kind: 'judged'; verdict: Verdict }
-  | { kind: 'no-verdict'; words: string };
 
 type Bound = { kind: 'computed'; bound: PermittedUpperBound } | { kind: 'unknown' | 'refused'; words: string };
 
@@ -111,7 +93,7 @@ export class WeightStep {
     return result.problem === undefined ? { kind: 'computed', bound: result.value } : { kind: 'refused', words: `Cannot compute the upper bound: ${result.problem}` };
   });
 
-  protected readonly judgement = computed<Judgement>(() => {
+  protected readonly judgement = computed<StepJudgement>(() => {
     const keypads = this.keypads();
     const missing = keypads.filter((pad) => pad.tenths === null);
     if (missing.length > 0) {
@@ -135,10 +117,4 @@ export class WeightStep {
     this.weighed.emit({ reading, tenths });
     this.lastEntered.set(`${label}: ${kg(tenths)} entered.`);
   }
-}
-
-function judged(result: Attempt<Verdict>): Judgement {
-  return result.problem === undefined
-    ? { kind: 'judged', verdict: result.value }
-    : { kind: 'no-verdict', words: `No verdict: ${result.problem} Refer to the technical delegate.` };
 }
