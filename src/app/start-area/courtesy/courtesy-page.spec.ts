@@ -17,6 +17,11 @@ async function setUp(change: (data: FieldData) => FieldData = (data) => data) {
   });
   const store = await startSignedIn(firstOfficial);
   await store.keepFieldData(change(fieldDataFor(raceId)));
+  return mount(store);
+}
+
+/** Shows the page again on the same device: after `fixture.destroy()`, like the app started again. */
+function mount(store: Awaited<ReturnType<typeof startSignedIn>>) {
   const fixture = TestBed.createComponent(CourtesyPage);
   fixture.componentRef.setInput('id', raceId);
   const element = fixture.nativeElement as HTMLElement;
@@ -38,7 +43,11 @@ async function setUp(change: (data: FieldData) => FieldData = (data) => data) {
     input.dispatchEvent(new Event('input'));
   };
   const courtesy = () => firstValueFrom(store.watchRecords(raceId, 'courtesy-reading'));
-  return { store, fixture, text, press, enterBib, courtesy };
+  const display = () => {
+    fixture.detectChanges();
+    return element.querySelector('rl-glove-keypad output')?.textContent?.replace(/\s+/g, ' ').trim() ?? '';
+  };
+  return { store, fixture, element, text, press, enterBib, courtesy, display };
 }
 
 const international = (data: FieldData): FieldData => ({ ...data, competition: { ...data.competition, level: 'international' } });
@@ -59,6 +68,27 @@ describe('CourtesyPage', () => {
     const [reading] = await page.courtesy();
     expect(reading?.fields).toMatchObject({ bib: 1, what: 'steel temperature', value: { tenths: -32, unit: 'celsius' } });
     expect(await firstValueFrom(page.store.watchRecords(raceId, 'violation'))).toEqual([]);
+  });
+
+  it('when a reading is half keyed and the app is killed, then the page comes back with the bib and the value, marked not saved', async () => {
+    const first = await setUp(international);
+    await until(() => first.text().includes('Steel temperature'), 'the keypad shows');
+    first.enterBib('1');
+    for (const key of ['Change the sign, plus or minus', '3', 'Decimal point']) first.press(key);
+    expect(first.display()).toBe('−3. °C');
+    first.fixture.destroy();
+
+    const again = mount(first.store);
+    await until(() => again.text().includes('Ann Example'), 'the athlete is named again');
+    expect(again.element.querySelector<HTMLInputElement>('input[name=bib]')?.value).toBe('1');
+    expect(again.display()).toBe('−3. °C');
+    expect(again.text()).toContain('◌ Restored: not saved yet');
+    for (const key of ['2', 'Show the athlete']) again.press(key);
+    await until(() => again.text().includes('Bib 1 · Ann Example'), 'the result shows');
+    expect((await again.courtesy())[0]?.fields).toMatchObject({ bib: 1, value: { tenths: -32, unit: 'celsius' } });
+    expect(again.display()).toBe('No value yet');
+    expect(localStorage.getItem(`rimelog.keypad-draft.courtesy:${raceId}`)).toBeNull();
+    expect(localStorage.getItem(`rimelog.courtesy-bib.${raceId}`)).toBeNull();
   });
 
   it('when the bib is not on the start list, then nothing is kept and the official is told', async () => {

@@ -1,19 +1,28 @@
 import { DatePipe } from '@angular/common';
-import { ChangeDetectionStrategy, Component, computed, inject, input, signal, viewChild } from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, inject, input, linkedSignal, signal, viewChild } from '@angular/core';
 import { toObservable, toSignal } from '@angular/core/rxjs-interop';
 import { FormsModule } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
 import { switchMap } from 'rxjs';
+import { z } from 'zod';
 import { athletesOf } from '../../../../shared/competition/start-list';
 import { formatTenths, type Measurement } from '../../../../shared/rules/measurement';
 import { judgeSteelTemperature } from '../../../../shared/rules/temperature';
 import type { Verdict } from '../../../../shared/rules/verdict';
+import { forget, keep, readKept } from '../../auth/local-json';
 import { FieldDataStore } from '../../core/field-data/field-data-store';
 import { DeviceStore } from '../../core/sync/device-store';
 import { GloveKeypad } from '../../ui/glove-keypad/glove-keypad';
+import { KEYPAD_DRAFT_CLOCK } from '../../ui/glove-keypad/keypad-draft-clock';
+import { isFreshDraft } from '../../ui/glove-keypad/keypad-drafts';
 import { controlLog, currentReadings } from '../control-steel/control-log';
 import { VerdictCard } from '../verdict/verdict-card';
 import { courtesyCheckOf, courtesyKeypads, courtesyLines } from './courtesy-check';
+
+// The bib typed for the courtesy reading being keyed, kept with the keypad's draft so that after the
+// app is killed the half-keyed value comes back with the athlete it belongs to.
+const bibDraftKey = (competitionId: string) => `rimelog.courtesy-bib.${competitionId}`;
+const bibDraftSchema = z.object({ bib: z.string().max(4), savedAt: z.number() });
 
 interface Shown {
   bib: number;
@@ -53,7 +62,13 @@ export class CourtesyPage {
   });
   readonly lines = computed(() => courtesyLines(this.courtesyRecords()));
   readonly hasFieldData = computed(() => this.fieldData() !== null);
-  readonly bib = signal('');
+  /** One courtesy keypad per competition on this device: its half-keyed value is kept under this name. */
+  readonly draftKey = computed(() => `courtesy:${this.id()}`);
+  private readonly now = inject(KEYPAD_DRAFT_CLOCK);
+  readonly bib = linkedSignal(() => {
+    const kept = readKept(bibDraftKey(this.id()), bibDraftSchema);
+    return kept && isFreshDraft(kept.savedAt, this.now()) ? kept.bib : '';
+  });
   readonly athlete = computed(() => {
     const bib = Number(this.bib().trim());
     return this.fieldData()?.startList.find((entry) => entry.bib === bib) ?? null;
@@ -85,7 +100,7 @@ export class CourtesyPage {
         valueText: formatTenths(value.tenths, value.unit),
         verdict: what === 'steel temperature' && data.profile ? this.judge(value, takenAt, data.profile.profile) : null,
       });
-      this.bib.set('');
+      this.setBib('');
       // The next athlete starts from an empty keypad.
       this.keypadView()?.clear();
     } catch (error) {
@@ -93,6 +108,13 @@ export class CourtesyPage {
     } finally {
       this.busy.set(false);
     }
+  }
+
+  /** Kept on the device at every change, like the keypad's draft; forgotten once it is empty. */
+  setBib(bib: string): void {
+    this.bib.set(bib);
+    if (bib === '') forget(bibDraftKey(this.id()));
+    else keep(bibDraftKey(this.id()), { bib, savedAt: this.now() });
   }
 
   private judge(reading: Measurement, takenAt: string, profile: Parameters<typeof judgeSteelTemperature>[0]['profile']): Verdict | null {

@@ -3,6 +3,7 @@ import { TestBed } from '@angular/core/testing';
 import type { RulesProfile } from '../../../../shared/rules/rules-profile';
 import type { TimedReading } from '../../../../shared/rules/temperature';
 import { profileWith } from '../../../../shared/rules/test-profiles';
+import { KEYPAD_DRAFT_CLOCK } from '../../ui/glove-keypad/keypad-draft-clock';
 import { STEEL_READING_CLOCK } from './steel-reading-clock';
 import type { SpotPlan, SpotReading } from './steel-spots';
 import { SteelTemperatureStep } from './steel-temperature-step';
@@ -21,6 +22,7 @@ const at = (minute: number) => `2027-01-09T09:${String(minute).padStart(2, '0')}
       [controlReadings]="controls()"
       [preset]="preset()"
       [readings]="saved()"
+      [draftScope]="draftScope()"
       (readingEntered)="onEntered($event)"
     />
   `,
@@ -30,6 +32,7 @@ class Host {
   readonly controls = signal<TimedReading[]>([control(-49, at(0))]);
   readonly preset = signal<SpotPlan | null>(null);
   readonly saved = signal<SpotReading[]>([]);
+  readonly draftScope = signal<string | null>(null);
   readonly emitted: SpotReading[] = [];
   /** Like the real host: keep each reading and pass the saved ones back in. */
   savesAtOnce = true;
@@ -41,10 +44,20 @@ class Host {
 }
 
 function setUp(change: (host: Host) => void = () => {}, { minute = 5 } = {}) {
+  localStorage.clear();
   const clock = { now: Date.parse(at(minute)) };
   TestBed.configureTestingModule({
-    providers: [provideZonelessChangeDetection(), { provide: STEEL_READING_CLOCK, useValue: () => clock.now }],
+    providers: [
+      provideZonelessChangeDetection(),
+      { provide: STEEL_READING_CLOCK, useValue: () => clock.now },
+      { provide: KEYPAD_DRAFT_CLOCK, useValue: () => clock.now },
+    ],
   });
+  return { ...mount(change), clock };
+}
+
+/** Shows a new step in the module already set up: after `fixture.destroy()`, like the app started again. */
+function mount(change: (host: Host) => void = () => {}) {
   const fixture = TestBed.createComponent(Host);
   change(fixture.componentInstance);
   fixture.detectChanges();
@@ -75,7 +88,7 @@ function setUp(change: (host: Host) => void = () => {}, { minute = 5 } = {}) {
   };
   const card = (key: string) => text(`rl-verdict-card[data-spot="${key}"]`);
   const host = fixture.componentInstance;
-  return { fixture, element, text, spot, tap, keys, card, host, clock, squash };
+  return { fixture, element, text, spot, tap, keys, card, host, squash };
 }
 
 describe('SteelTemperatureStep', () => {
@@ -128,12 +141,12 @@ describe('SteelTemperatureStep', () => {
     const { tap, keys, card, text, spot } = setUp();
     tap('right-0');
     keys('0', '.', '2', 'Save');
-    expect(card('right-0')).toContain('⚠ Over the limit: violation to report');
+    expect(card('right-0')).toContain('⚠ Fails the check: violation to report');
     expect(card('right-0')).toContain('Steel +0.2 °C is 0.1 °C over the limit of +0.1 °C.');
     expect(card('right-0')).toContain('Control steel: −4.9 °C, read 5 min before');
     expect(card('right-0')).toContain('Limit: +0.1 °C');
     expect(spot('right-0').textContent).toContain('⚠ over');
-    expect(text('[data-section="summary"] .outcome')).toBe('⚠ Over the limit: violation to report');
+    expect(text('[data-section="summary"] .outcome')).toBe('⚠ Fails the check: violation to report');
     expect(text('[data-section="summary"] .detail')).toBe('1 reading of 4 taken; 3 readings still needed (2 on the left steel and 1 on the right steel).');
     expect(text('[data-section="summary"] .decides')).toBe('The rulebook in force and the technical delegate decide.');
   });
@@ -236,9 +249,9 @@ describe('SteelTemperatureStep', () => {
       { steel: 'left', spot: 2, tenths: 3, takenAt: at(3) },
     ]));
     expect(spot('left-0').textContent).toContain('−1.2 °C');
-    expect(card('left-2')).toContain('⚠ Over the limit: violation to report');
+    expect(card('left-2')).toContain('⚠ Fails the check: violation to report');
     expect(card('left-0')).toMatch(/^Left steel, spot 1 \(front\) ✓ Within the limit/);
-    expect(text('[data-section="summary"] .outcome')).toBe('⚠ Over the limit: violation to report');
+    expect(text('[data-section="summary"] .outcome')).toBe('⚠ Fails the check: violation to report');
   });
 
   it('when the keypad is shown, then the caution about steel edges stands beside it', () => {
@@ -263,6 +276,44 @@ describe('SteelTemperatureStep', () => {
       if (original) Object.defineProperty(Element.prototype, 'scrollIntoView', original);
       else delete (Element.prototype as Partial<Element>).scrollIntoView;
     }
+  });
+
+  it('when a reading is half keyed and the app is killed, then the same spot of the same check shows it again, marked not saved', () => {
+    const inCheck = (h: Host) => h.draftScope.set('check:c1');
+    const first = setUp(inCheck);
+    first.tap('left-1');
+    first.keys('4', '±', '.');
+    expect(localStorage.getItem('rimelog.keypad-draft.check:c1:steel:left:1')).not.toBeNull();
+    first.fixture.destroy();
+
+    const again = mount(inCheck);
+    again.tap('right-0');
+    expect(again.text('.glove-keypad output')).toBe('No value yet');
+    again.tap('left-1');
+    expect(again.text('.glove-keypad output')).toBe('−4. °C');
+    expect(again.text('.glove-keypad [data-section="restored"]')).toBe('◌ Restored: not saved yet');
+    again.keys('2', 'Save');
+    expect(again.host.emitted).toEqual([{ steel: 'left', spot: 1, tenths: -42, takenAt: at(5) }]);
+    expect(localStorage.getItem('rimelog.keypad-draft.check:c1:steel:left:1')).toBeNull();
+  });
+
+  it('when another check reads the same spot, then it does not see this check’s draft', () => {
+    const first = setUp((h) => h.draftScope.set('check:c1'));
+    first.tap('left-1');
+    first.keys('7', '±');
+    first.fixture.destroy();
+
+    const other = mount((h) => h.draftScope.set('check:c2'));
+    other.tap('left-1');
+    expect(other.text('.glove-keypad output')).toBe('No value yet');
+    expect(other.element.querySelector('[data-section="restored"]')).toBeNull();
+  });
+
+  it('when the host names no check, then no draft is kept on the device', () => {
+    const { tap, keys } = setUp();
+    tap('left-1');
+    keys('4', '±', '.');
+    expect(localStorage.length).toBe(0);
   });
 
   it('when the diagram is drawn, then every spot is a button with its name for screen readers', () => {

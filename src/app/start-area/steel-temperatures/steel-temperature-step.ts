@@ -68,6 +68,11 @@ export class SteelTemperatureStep {
   readonly preset = input<SpotPlan | null>(null);
   /** The readings of this sled saved so far, so the screen comes back after a reload. */
   readonly readings = input<readonly SpotReading[]>([]);
+  /**
+   * Names this sled's check on the device (e.g. "check:<checkId>"), so a reading half keyed on a spot
+   * comes back after the app is killed; null keeps no drafts.
+   */
+  readonly draftScope = input<string | null>(null);
   readonly readingEntered = output<SpotReading>();
 
   private readonly now = inject(STEEL_READING_CLOCK);
@@ -120,7 +125,12 @@ export class SteelTemperatureStep {
     if (!spot || this.question()) return null;
     const replaces = this.replacesSpot();
     const replacing = replaces === null ? '' : ` (replaces spot ${replaces + 1})`;
-    return { round: `${spotKey(spot)}#${this.keypadRound()}`, label: `${shortSpotName(spot)}${replacing}: steel temperature` };
+    const scope = this.draftScope();
+    return {
+      round: `${spotKey(spot)}#${this.keypadRound()}`,
+      label: `${shortSpotName(spot)}${replacing}: steel temperature`,
+      draftKey: scope === null ? null : `${scope}:steel:${spot.steel}:${spot.spot}`,
+    };
   });
 
   /** When a preset exists and the selected spot is not one of it, say where the first sled was read. */

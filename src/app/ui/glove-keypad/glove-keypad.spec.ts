@@ -1,8 +1,10 @@
 import { Component, provideZonelessChangeDetection, signal } from '@angular/core';
 import { TestBed } from '@angular/core/testing';
+import { By } from '@angular/platform-browser';
 import { TestbedHarnessEnvironment } from '@angular/cdk/testing/testbed';
 import { MatInputHarness } from '@angular/material/input/testing';
 import { GloveKeypad } from './glove-keypad';
+import { KEYPAD_DRAFT_CLOCK } from './keypad-draft-clock';
 
 @Component({
   imports: [GloveKeypad],
@@ -14,6 +16,7 @@ import { GloveKeypad } from './glove-keypad';
       [maxTenths]="maxTenths()"
       [allowNegative]="allowNegative()"
       [initialTenths]="initialTenths()"
+      [draftKey]="draftKey()"
       (committed)="values.push($event)"
     />
   `,
@@ -23,11 +26,22 @@ class Host {
   readonly maxTenths = signal<number | null>(50);
   readonly allowNegative = signal(true);
   readonly initialTenths = signal<number | null>(null);
+  readonly draftKey = signal<string | null>(null);
   readonly values: number[] = [];
 }
 
+/** The keypad's clock, set by each spec so a draft can age without timers. */
+const clock = { now: Date.parse('2027-01-09T09:00:00.000Z') };
+
 function setUp(change: (host: Host) => void = () => {}) {
-  TestBed.configureTestingModule({ providers: [provideZonelessChangeDetection()] });
+  TestBed.configureTestingModule({
+    providers: [provideZonelessChangeDetection(), { provide: KEYPAD_DRAFT_CLOCK, useValue: () => clock.now }],
+  });
+  return mount(change);
+}
+
+/** Shows a new keypad in the module already set up: after `fixture.destroy()`, like the app started again. */
+function mount(change: (host: Host) => void = () => {}) {
   const fixture = TestBed.createComponent(Host);
   change(fixture.componentInstance);
   fixture.detectChanges();
@@ -51,7 +65,8 @@ function setUp(change: (host: Host) => void = () => {}) {
     }
   };
   const values = () => fixture.componentInstance.values;
-  return { fixture, element, key, press, display, problem, typeKeys, values };
+  const restoredLine = () => element.querySelector('[data-section="restored"]')?.textContent?.replace(/\s+/g, ' ').trim() ?? null;
+  return { fixture, element, key, press, display, problem, typeKeys, values, restoredLine };
 }
 
 describe('GloveKeypad', () => {
@@ -227,5 +242,194 @@ describe('GloveKeypad', () => {
     expect(output.getAttribute('aria-live')).toBe('polite');
     expect(output.getAttribute('role')).toBe('status');
     expect(element.querySelector('.problem')?.getAttribute('aria-live')).toBe('polite');
+  });
+});
+
+describe('GloveKeypad drafts', () => {
+  const spotKey = 'check:7:steel:left:1';
+  const stored = (draftKey: string) => localStorage.getItem(`rimelog.keypad-draft.${draftKey}`);
+  const withKey = (draftKey: string | null) => (host: Host) => host.draftKey.set(draftKey);
+
+  beforeEach(() => {
+    localStorage.clear();
+    clock.now = Date.parse('2027-01-09T09:00:00.000Z');
+  });
+
+  it('when a value is half keyed and the app is killed, then a new keypad with the same key shows it, sign and point included, marked not saved', () => {
+    const first = setUp(withKey(spotKey));
+    first.press('4', '±', '.');
+    expect(first.display()).toBe('−4. °C');
+    expect(first.restoredLine()).toBeNull();
+    expect(JSON.parse(stored(spotKey)!)).toEqual({
+      entry: { isNegative: true, whole: '4', hasPoint: true, tenth: '' },
+      isTyping: false,
+      typedText: '',
+      savedAt: clock.now,
+    });
+    first.fixture.destroy();
+
+    const again = mount(withKey(spotKey));
+    expect(again.display()).toBe('−4. °C');
+    expect(again.restoredLine()).toBe('◌ Restored: not saved yet');
+    const restoredId = again.element.querySelector('[data-section="restored"]')!.id;
+    expect(again.element.querySelector('output')?.getAttribute('aria-labelledby')).toContain(restoredId);
+    again.press('5', 'OK');
+    expect(again.values()).toEqual([-45]);
+  });
+
+  it('when every key is written, then ⌫ and Clear are kept too, and back at the start there is nothing to restore', () => {
+    const first = setUp(withKey(spotKey));
+    first.press('1', '2', '⌫');
+    expect(JSON.parse(stored(spotKey)!).entry).toEqual({ isNegative: false, whole: '1', hasPoint: false, tenth: '' });
+    first.press('Clear');
+    expect(stored(spotKey)).toBeNull();
+    first.fixture.destroy();
+    expect(mount(withKey(spotKey)).restoredLine()).toBeNull();
+  });
+
+  it('when the text field was open, then it comes back open with the typed text, its problem and the entry', async () => {
+    const first = setUp(withKey(spotKey));
+    first.element.querySelector<HTMLButtonElement>('.type-toggle')!.click();
+    await first.fixture.whenStable();
+    expect(JSON.parse(stored(spotKey)!)).toMatchObject({ isTyping: true, typedText: '' });
+    const input = await TestbedHarnessEnvironment.loader(first.fixture).getHarness(MatInputHarness);
+    await input.setValue('−3,4');
+    await input.setValue('−3,45');
+    expect(JSON.parse(stored(spotKey)!)).toMatchObject({ isTyping: true, typedText: '−3,45' });
+    first.fixture.destroy();
+
+    const again = mount(withKey(spotKey));
+    await again.fixture.whenStable();
+    expect(again.element.querySelector('.type-toggle')?.getAttribute('aria-pressed')).toBe('true');
+    expect(again.element.querySelector('input')?.value).toBe('−3,45');
+    expect(again.display()).toBe('−3.4 °C');
+    expect(again.problem()).toBe('⚠ One decimal only: "−3,45" has 2 digits after the point.');
+    expect(again.restoredLine()).toBe('◌ Restored: not saved yet');
+    // Restored, the text field waits for the official: the phone keyboard does not open by itself.
+    expect(document.activeElement?.tagName).not.toBe('INPUT');
+  });
+
+  it('when OK hands the value over, then the draft is gone and a new keypad starts from nothing', () => {
+    const first = setUp(withKey(spotKey));
+    first.press('2', '.', '5', 'OK');
+    expect(first.values()).toEqual([25]);
+    expect(stored(spotKey)).toBeNull();
+    first.fixture.destroy();
+    const again = mount(withKey(spotKey));
+    expect(again.display()).toBe('No value yet');
+    expect(again.restoredLine()).toBeNull();
+  });
+
+  it('when OK is refused, then the draft stays', () => {
+    const { press } = setUp(withKey(spotKey));
+    press('9', '9', 'OK');
+    expect(JSON.parse(stored(spotKey)!).entry.whole).toBe('99');
+  });
+
+  it('when a restored value is handed over, then the "not saved yet" line goes', () => {
+    const first = setUp(withKey(spotKey));
+    first.press('3', '±');
+    first.fixture.destroy();
+    const again = mount(withKey(spotKey));
+    expect(again.restoredLine()).toBe('◌ Restored: not saved yet');
+    again.press('OK');
+    expect(again.values()).toEqual([-30]);
+    expect(again.restoredLine()).toBeNull();
+  });
+
+  it('when the host clears the keypad, then the draft is gone too', () => {
+    const { fixture, press, display } = setUp(withKey(spotKey));
+    press('7');
+    (fixture.debugElement.query(By.directive(GloveKeypad)).componentInstance as GloveKeypad).clear();
+    fixture.detectChanges();
+    expect(display()).toBe('No value yet');
+    expect(stored(spotKey)).toBeNull();
+  });
+
+  it('when a draft is older than 12 hours, then it is dropped and the recorded value shows instead', () => {
+    const first = setUp(withKey(spotKey));
+    first.press('1', '±');
+    first.fixture.destroy();
+    clock.now += 12 * 60 * 60_000 + 1;
+    const again = mount((host) => {
+      host.draftKey.set(spotKey);
+      host.initialTenths.set(-49);
+    });
+    expect(again.display()).toBe('−4.9 °C');
+    expect(again.restoredLine()).toBeNull();
+    expect(stored(spotKey)).toBeNull();
+  });
+
+  it('when a draft is just under 12 hours old, then it still wins over the recorded value', () => {
+    const first = setUp(withKey(spotKey));
+    first.press('1', '±');
+    first.fixture.destroy();
+    clock.now += 12 * 60 * 60_000 - 60_000;
+    const again = mount((host) => {
+      host.draftKey.set(spotKey);
+      host.initialTenths.set(-49);
+    });
+    expect(again.display()).toBe('−1 °C');
+    expect(again.restoredLine()).toBe('◌ Restored: not saved yet');
+  });
+
+  it('when a recorded value was cleared with the Clear key, then the empty entry is restored, not the recorded value', () => {
+    const first = setUp((host) => {
+      host.draftKey.set(spotKey);
+      host.initialTenths.set(-49);
+    });
+    first.press('Clear');
+    first.fixture.destroy();
+    const again = mount((host) => {
+      host.draftKey.set(spotKey);
+      host.initialTenths.set(-49);
+    });
+    expect(again.display()).toBe('No value yet');
+    expect(again.restoredLine()).toBe('◌ Restored: not saved yet');
+  });
+
+  it('when the keypad has no draft key, then nothing is written to the device', async () => {
+    const { fixture, element, press } = setUp();
+    press('±', '4', '.', '2');
+    element.querySelector<HTMLButtonElement>('.type-toggle')!.click();
+    await fixture.whenStable();
+    const input = await TestbedHarnessEnvironment.loader(fixture).getHarness(MatInputHarness);
+    await input.setValue('3');
+    press('OK');
+    expect(localStorage.length).toBe(0);
+  });
+
+  it('when the draft key is another one, then its own draft shows and no other; switching keys brings each back', () => {
+    const first = setUp(withKey('check:7:steel:left:1'));
+    first.press('6', '±');
+    first.fixture.destroy();
+
+    const other = mount(withKey('check:7:steel:right:1'));
+    expect(other.display()).toBe('No value yet');
+    expect(other.restoredLine()).toBeNull();
+    other.press('2');
+    other.fixture.componentInstance.draftKey.set('check:7:steel:left:1');
+    other.fixture.detectChanges();
+    expect(other.display()).toBe('−6 °C');
+    expect(other.restoredLine()).toBe('◌ Restored: not saved yet');
+    other.fixture.componentInstance.draftKey.set('check:7:steel:right:1');
+    other.fixture.detectChanges();
+    expect(other.display()).toBe('2 °C');
+  });
+
+  it('when the device storage is full or blocked, then keying and OK still work', () => {
+    const setItem = vi.spyOn(Storage.prototype, 'setItem').mockImplementation(() => {
+      throw new DOMException('The quota has been exceeded.', 'QuotaExceededError');
+    });
+    try {
+      const { press, display, values } = setUp(withKey(spotKey));
+      press('±', '1', '.', '5');
+      expect(display()).toBe('−1.5 °C');
+      expect(setItem).toHaveBeenCalled();
+      press('OK');
+      expect(values()).toEqual([-15]);
+    } finally {
+      setItem.mockRestore();
+    }
   });
 });

@@ -29,7 +29,7 @@ export interface KeypadRange {
 }
 
 /** The most digits before the point that `parseTenths` reads. */
-const maxWholeDigits = 5;
+export const maxWholeDigits = 5;
 const largestMagnitude = 10 ** maxWholeDigits * 10 - 1;
 
 export function measureUnitOf(unit: KeypadUnit): MeasureUnit {
