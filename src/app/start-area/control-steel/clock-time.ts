@@ -15,3 +15,20 @@ export function countdownClock(totalSeconds: number): string {
   const rest = `${twoDigits(seconds % 60)}`;
   return hours > 0 ? `${hours}:${twoDigits(minutes)}:${rest}` : `${minutes}:${rest}`;
 }
+
+const weekdays = ['Sun', 'Mon', 'Tue', 'Wed', 'Thu', 'Fri', 'Sat'];
+const months = ['Jan', 'Feb', 'Mar', 'Apr', 'May', 'Jun', 'Jul', 'Aug', 'Sep', 'Oct', 'Nov', 'Dec'];
+
+/** The day of `at` as seen from `now`: "today", "tomorrow", "yesterday", else "Thu 14 Jan" (device clock). */
+export function dayWords(at: number, now: number): string {
+  const day = (ms: number) => {
+    const date = new Date(ms);
+    return Date.UTC(date.getFullYear(), date.getMonth(), date.getDate()) / 86_400_000;
+  };
+  const offset = day(at) - day(now);
+  if (offset === 0) return 'today';
+  if (offset === 1) return 'tomorrow';
+  if (offset === -1) return 'yesterday';
+  const date = new Date(at);
+  return `${weekdays[date.getDay()]} ${date.getDate()} ${months[date.getMonth()]}`;
+}

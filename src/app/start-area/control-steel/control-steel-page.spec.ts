@@ -19,7 +19,9 @@ import { appTestProviders, blankRoutes } from '../../testing/app-test-providers'
 import { CONTROL_STEEL_CLOCK } from './control-steel-clock';
 import { ControlSteelPage } from './control-steel-page';
 import { signingStatement } from './signed-log';
+import { steelTemperature } from '../checks/check-steel';
 import { fakeDrawingPads, signaturePngBytes, type FakeDrawingPad } from './testing/fake-drawing-pad';
+import { fakeReminderOutlets } from './testing/fake-reminder-outlets';
 
 // The shipped profiles leave the grace unset; 2 min is this spec's own assumption. The 15 min interval
 // is trade practice, no published source.
@@ -28,6 +30,7 @@ const frozen: CompetitionRulesProfile = {
   frozenAt: '2027-01-14T07:00:00.000Z',
   profile: profileWith('natural', 'international', { 'controlSteel.grace': 2 }),
 };
+const artificialRules: CompetitionRulesProfile = { ...frozen, profile: profileWith('artificial', 'international', { 'controlSteel.grace': 2 }) };
 const rulesUrl = `/api/competitions/${competitionId}/rules-profile`;
 
 /** A time on this device's own clock, so "09:05" on screen holds in any time zone. */
@@ -43,25 +46,28 @@ async function setUp({ server = new FakeSyncServer(), time = at(9, 20) } = {}) {
   const clock = { now: time.getTime() };
   // jsdom has no 2D canvas: the signature box draws on a fake pad (signature-pad.spec.ts covers the real one).
   const { pads, providers: drawingPads } = fakeDrawingPads();
+  // No real notification, sound or vibration in a spec: the fake records each attempt.
+  const { outlets, providers: reminderOutlets } = fakeReminderOutlets();
   TestBed.configureTestingModule({
     providers: [
       ...appTestProviders(blankRoutes('')),
       ...provideTestDeviceStore(server, new FakeBrowserStorage()),
       { provide: CONTROL_STEEL_CLOCK, useValue: () => clock.now },
       ...drawingPads,
+      ...reminderOutlets,
     ],
   });
   const store = await startSignedIn(firstOfficial);
-  return { server, store, clock, pads };
+  return { server, store, clock, pads, outlets };
 }
 
 /** Opens the page; the rules arrive, fail as without signal, or are left pending. */
-async function openPage(rules: 'arrive' | 'no-signal') {
+async function openPage(rules: 'arrive' | 'no-signal', answer: CompetitionRulesProfile = frozen) {
   const fixture = TestBed.createComponent(ControlSteelPage);
   fixture.componentRef.setInput('id', competitionId);
   TestBed.tick();
   const request = TestBed.inject(HttpTestingController).expectOne(rulesUrl);
-  if (rules === 'arrive') request.flush(frozen);
+  if (rules === 'arrive') request.flush(answer);
   else request.error(new ProgressEvent('error'), { status: 0, statusText: 'Unknown Error' });
   const page = pageOf(fixture);
   await until(() => !page.text('[data-section="log"]').includes('Reading the log'), 'the log is read');
@@ -402,5 +408,243 @@ describe('ControlSteelPage', () => {
     expect(photos.map((photo) => photo.fields['of'])).toEqual([signatures[0]!.id]);
     await until(() => !page.text('[data-section="signatures"]').includes('not on this device'), 'the picture is there');
     expect(page.element.querySelector('[data-section="picture-owed"]')).toBeNull();
+  });
+
+  describe('mounting checklist', () => {
+    const mountingShown = (page: ReturnType<typeof pageOf>) =>
+      until(() => page.element.querySelector('[data-section="mounting-form"], [data-section="mounting-summary"]') !== null, 'the mounting shows');
+
+    it('when no mounting is recorded on natural track, then it asks the height and shade only, judges it as it is answered, saves it, and shrinks to one line', async () => {
+      const { store, server } = await setUp({ time: at(9, 20) });
+      const page = await openPage('arrive');
+      await mountingShown(page);
+
+      // trade practice, no published source: natural track 0.5 m to 1.0 m above ground, in shade, ≥ 30 min before the first start
+      expect([...page.element.querySelectorAll('[data-section="mounting-asks"] li')].map((li) => li.textContent?.trim())).toEqual([
+        'Height above the ground: 50.0 cm to 100.0 cm',
+        'In the shade',
+        'Mounted at least 30 min before the first start',
+      ]);
+      expect(page.element.querySelector('rl-glove-keypad[data-section="mounting-height"]')).not.toBeNull();
+      expect(page.element.querySelector('[data-section="mounting-length"]')).toBeNull();
+      expect(page.element.querySelector('[data-section="mounting-drafts"]')).toBeNull();
+      expect(page.text('[data-section="mounted-at"] output')).toBe('09:20 today');
+      expect(page.text('[data-section="mounting-judgement"]')).toBe('◌ Still to answer: the height above the ground, whether it is in the shade, the time of the first start.');
+
+      page.press('Save the mounting', '[data-section="mounting"]');
+      expect(page.text('[data-section="mounting-problem"]')).toBe('⚠ Answer the height above the ground, whether it is in the shade, the time of the first start first.');
+      expect(await stored(store, 'control-steel-mounting')).toEqual([]);
+
+      page.keys('[data-section="mounting-height"]', '7', '0', 'Keep');
+      page.press('Yes', '[data-section="mounting-shade"]');
+      expect(page.element.querySelector('[data-section="mounting-shade"] button[aria-pressed="true"]')?.textContent?.trim()).toBe('● Yes');
+      page.press('Enter the first start time', '[data-section="mounting"]');
+      expect(page.text('[data-section="first-start"] output')).toBe('10:00 today');
+      page.press('−5 min', '[data-section="mounted-at"]');
+      expect(page.text('[data-section="mounted-at"] output')).toBe('09:15 today');
+
+      const verdict = page.text('[data-section="mounting-verdict"]');
+      expect(verdict).toContain('✓');
+      expect(verdict).toContain('The control steel is mounted as the profile asks.');
+      expect(verdict).toContain('Height above ground: 70.0 cm');
+      expect(verdict).toContain('Mounted before the first start: 45 min');
+      expect(verdict).toContain('The rulebook in force and the technical delegate decide.');
+
+      page.press('Save the mounting', '[data-section="mounting"]');
+      await until(() => page.text('[data-section="mounting-summary"]') !== '', 'the one-line summary shows');
+      expect(page.text('[data-section="mounting-summary"]')).toContain('✓ Mounted 09:15 for the first start at 10:00: The control steel is mounted as the profile asks. (First Official)');
+      expect(page.element.querySelector('[data-section="mounting-summary"]')?.getAttribute('data-state')).toBe('pass');
+      expect(page.element.querySelector('[data-section="mounting-form"]')).toBeNull();
+      expect(page.text('[data-section="mounting-saved"]')).toBe('✓ Mounting saved on this device 09:20:00.');
+      const [saved] = await stored(store, 'control-steel-mounting');
+      expect(saved?.fields).toEqual({
+        height: { tenths: 700, unit: 'centimetre' },
+        length: null,
+        inShade: true,
+        awayFromDrafts: null,
+        mountedAt: at(9, 15).toISOString(),
+        firstStartAt: at(10, 0).toISOString(),
+        supersedes: null,
+        reason: null,
+      });
+      await until(() => server.received.some((op) => op.recordKind === 'control-steel-mounting'), 'the mounting reaches the server');
+    });
+
+    it('when the mounting is checked again, then the checklist comes back filled in and saving corrects the first record, with the reason written by the app', async () => {
+      const { store, clock } = await setUp({ time: at(9, 20) });
+      const { record: first } = await store.createRecord('control-steel-mounting', competitionId, 'start', {
+        height: { tenths: 700, unit: 'centimetre' },
+        inShade: true,
+        mountedAt: at(9, 0).toISOString(),
+        firstStartAt: at(10, 0).toISOString(),
+      });
+      const page = await openPage('arrive');
+      await until(() => page.text('[data-section="mounting-summary"]') !== '', 'the summary shows');
+      expect(page.text('[data-section="mounting-summary"]')).toContain('✓ Mounted 09:00 for the first start at 10:00');
+
+      clock.now = at(9, 40).getTime();
+      page.press('Check the mounting again', '[data-section="mounting"]');
+      expect(page.text('[data-section="mounting-height"] output')).toBe('70.0 cm');
+      expect(page.text('[data-section="first-start"] output')).toBe('10:00 today');
+      page.keys('[data-section="mounting-height"]', 'Clear', '4', '5', 'Keep');
+      // trade practice, no published source: at least 0.5 m above the ground
+      expect(page.text('[data-section="mounting-verdict"]')).toContain('The control steel is mounted 45.0 cm high, lower than 50.0 cm.');
+      page.press('Save the check', '[data-section="mounting"]');
+
+      await until(() => page.element.querySelector('[data-section="mounting-summary"]')?.getAttribute('data-state') === 'fail', 'the summary shows the new verdict');
+      expect(page.text('[data-section="mounting-summary"]')).toContain('⚠ Mounted 09:00 for the first start at 10:00: The control steel is mounted 45.0 cm high, lower than 50.0 cm.');
+      const records = await stored(store, 'control-steel-mounting');
+      expect(records).toHaveLength(2);
+      const correction = records.find((record) => record.id !== first.id);
+      expect(correction?.supersedes).toBe(first.id);
+      expect(correction?.fields).toMatchObject({ height: { tenths: 450, unit: 'centimetre' }, inShade: true, reason: 'Checked again at 09:40: height 70.0 cm → 45.0 cm.' });
+    });
+
+    it('when the track is artificial, then it asks the length and drafts, not the height, and a draft or a short lead fails with its numbers', async () => {
+      const { store } = await setUp({ time: at(9, 20) });
+      const page = await openPage('arrive', artificialRules);
+      await mountingShown(page);
+
+      expect(page.element.querySelector('[data-section="mounting-height"]')).toBeNull();
+      page.keys('[data-section="mounting-length"]', '2', '5', 'Keep');
+      page.press('Yes', '[data-section="mounting-shade"]');
+      page.press('No', '[data-section="mounting-drafts"]');
+      expect(page.element.querySelector('[data-section="mounting-drafts"] button[aria-pressed="true"]')?.textContent?.trim()).toBe('● No');
+      page.press('Enter the first start time', '[data-section="mounting"]');
+
+      // trade practice, no published source: out of drafts, mounted ≥ 4 h before the start
+      expect(page.text('[data-section="mounting-verdict"]')).toContain('The control steel is in a draft; mounted 40 min before the first start, less than 240 min.');
+      for (let hour = 0; hour < 4; hour++) page.press('−1 h', '[data-section="mounted-at"]');
+      page.press('Yes', '[data-section="mounting-drafts"]');
+      expect(page.text('[data-section="mounted-at"] output')).toBe('05:20 today');
+      expect(page.text('[data-section="mounting-verdict"]')).toContain('The control steel is mounted as the profile asks.');
+      expect(page.text('[data-section="mounting-verdict"]')).toContain('Length: 25.0 cm');
+
+      page.press('Save the mounting', '[data-section="mounting"]');
+      await until(() => page.text('[data-section="mounting-summary"]') !== '', 'the summary shows');
+      const [saved] = await stored(store, 'control-steel-mounting');
+      expect(saved?.fields).toMatchObject({ height: null, length: { tenths: 250, unit: 'centimetre' }, inShade: true, awayFromDrafts: true, mountedAt: at(5, 20).toISOString() });
+    });
+  });
+
+  it('when the rules ask for ice and air, then a reading is refused without them, saved with them, and the log shows them', async () => {
+    const { store } = await setUp({ time: at(9, 20) });
+    // A reading from before, without ice and air: the log says they were not logged.
+    await store.createRecord('control-reading', competitionId, 'start', reading(-70, at(9, 0)));
+    const page = await openPage('arrive', artificialRules);
+    await until(() => page.entries().length === 1, 'the log shows the earlier reading');
+    expect(page.entries()[0]).toContain('◌ Ice and air not logged with this reading');
+
+    page.type('input[name="instrument"]', 'P-7');
+    page.keys('[data-section="control-pad"]', '6', '.', '2', '±', 'Save');
+    expect(page.text('[data-section="entry-problem"]')).toBe(
+      '⚠ Key the ice and the air temperature first and press Keep: the rules ask for ice and air with every control reading.',
+    );
+    expect(await storedReadings(store)).toHaveLength(1);
+    // The control value stays keyed.
+    expect(page.text('[data-section="control-pad"] output')).toBe('−6.2 °C');
+
+    page.keys('[data-section="ice"]', '8', '.', '1', '±', 'Keep');
+    expect(page.text('[data-section="ice-kept"]')).toBe('✓ Ice kept for this reading: −8.1 °C');
+    page.keys('[data-section="air"]', '2', '±', 'Keep');
+    expect(page.text('[data-section="air-kept"]')).toBe('✓ Air kept for this reading: −2.0 °C');
+    page.keys('[data-section="control-pad"]', 'Save');
+
+    await until(() => page.text('[data-section="saved"]') !== '', 'the save is confirmed');
+    expect(page.text('[data-section="saved"]')).toBe('✓ Saved on this device 09:20:00: −6.2 °C (ice −8.1 °C, air −2.0 °C).');
+    const saved = (await storedReadings(store)).find((record) => record.fields['takenAt'] === at(9, 20).toISOString());
+    expect(saved?.fields).toMatchObject({ reading: { tenths: -62 }, ice: { tenths: -81, unit: 'celsius' }, air: { tenths: -20, unit: 'celsius' } });
+    await until(() => page.entries().length === 2, 'the log shows the new reading');
+    expect(page.entries()[0]).toContain('−6.2 °C 09:20');
+    expect(page.entries()[0]).toContain('Ice −8.1 °C Air −2.0 °C');
+    // Ready for the next reading: nothing kept.
+    expect(page.text('[data-section="ice-kept"]')).toBe('◌ No ice temperature kept yet');
+  });
+
+  it('when sleds have been read, then the log posts the highest live sled steel temperature with its bib and time, and follows a correction', async () => {
+    const { store } = await setUp({ time: at(9, 40) });
+    const check = async (bib: number) =>
+      (await store.createRecord('start-check', competitionId, 'start', { run: 1, bib, status: 'cleared', beganAt: at(9, 0).toISOString() })).record.id;
+    const steel = (checkId: string, tenths: number, takenAt: Date) =>
+      store.createRecord('measurement', competitionId, 'start', { checkId, what: steelTemperature, place: 'left:1', value: { tenths, unit: 'celsius' }, takenAt: takenAt.toISOString(), instrumentId: 'P-1' });
+    const twelve = await check(12);
+    const seven = await check(7);
+    await steel(twelve, -12, at(9, 10));
+    const { record: warmest } = await steel(seven, 6, at(9, 14));
+    await steel(twelve, 4, at(9, 21));
+    await store.createRecord('measurement', competitionId, 'start', { checkId: seven, what: 'sled weight', value: { tenths: 215, unit: 'kilogram' }, takenAt: at(9, 22).toISOString() });
+    const page = await openPage('arrive');
+
+    await until(() => page.text('[data-section="highest-steel"]').includes('+'), 'the highest steel shows');
+    expect(page.text('[data-section="highest-steel"]')).toBe('Highest sled steel temperature so far: +0.6 °C (bib 7, 09:14)');
+
+    await store.correctRecord(warmest.id, { value: { tenths: -6, unit: 'celsius' } }, 'misread');
+    await until(() => page.text('[data-section="highest-steel"]').includes('bib 12'), 'the line follows the correction');
+    expect(page.text('[data-section="highest-steel"]')).toBe('Highest sled steel temperature so far: +0.4 °C (bib 12, 09:21)');
+  });
+
+  it('when a reading falls due and then is overdue, then a notification, a beep and a vibration fire once each time, and overdue shows large in words', async () => {
+    const { store, clock, outlets } = await setUp({ time: at(9, 20) });
+    outlets.allowed = 'granted';
+    await store.createRecord('control-reading', competitionId, 'start', reading(-62, at(9, 15)));
+    const page = await openPage('arrive');
+    await until(() => page.text('.state') === '✓ On time', 'the countdown shows');
+    expect(outlets.notifications).toEqual([]);
+    expect(page.element.querySelector('[data-section="overdue"]')).toBeNull();
+
+    clock.now = at(9, 31).getTime();
+    await until(() => outlets.beeps === 1, 'the due reminder fires');
+    expect(outlets.notifications.map((n) => n.title)).toEqual(['Control steel reading due']);
+    expect(outlets.notifications[0]?.options.body).toBe('Read the control steel now: it was due at 09:30.');
+    expect(outlets.vibrations).toHaveLength(1);
+
+    // The screen ticks on while it is due: no second reminder for the same due time.
+    clock.now = at(9, 31, 30).getTime();
+    await until(() => page.text('[role="timer"]') === '1:30 since it was due', 'the screen has ticked');
+    expect([outlets.notifications.length, outlets.beeps, outlets.vibrations.length]).toEqual([1, 1, 1]);
+    expect(page.element.querySelector('[data-section="overdue"]')).toBeNull();
+
+    clock.now = at(9, 33).getTime();
+    await until(() => page.element.querySelector('[data-section="overdue"]') !== null, 'overdue shows');
+    expect(page.text('[data-section="overdue"] .overdue-words')).toBe('⚠ OVERDUE: read the control steel now');
+    expect(page.text('[data-section="overdue"]')).toContain('Until a new control reading is logged, steel temperatures are not judged.');
+    expect(page.element.querySelector('[data-section="overdue"]')?.getAttribute('role')).toBe('alert');
+    expect(outlets.notifications.map((n) => n.title)).toEqual(['Control steel reading due', 'Control steel reading OVERDUE']);
+    expect([outlets.beeps, outlets.vibrations.length]).toEqual([2, 2]);
+
+    page.type('input[name="instrument"]', 'P-7');
+    page.keys('[data-section="control-pad"]', '5', '.', '9', '±', 'Save');
+    await until(() => page.element.querySelector('[data-section="overdue"]') === null, 'the new reading ends overdue');
+    expect(page.text('.state')).toBe('✓ On time');
+    // Saving was a tap: the beep is readied for the next reminder.
+    expect(outlets.unlocks).toBeGreaterThan(0);
+  });
+
+  it('when reminders are not allowed yet, then "Allow reminders" asks the browser, and a refusal says what still works', async () => {
+    const { outlets } = await setUp();
+    outlets.answer = 'denied';
+    const page = await openPage('arrive');
+
+    expect(page.text('[data-section="reminders"]')).toContain('If you refuse, this screen still beeps and shows Due now and Overdue while it is open');
+    expect(page.text('[data-section="reminders"]')).toContain('Phones may hold back timers while the screen is off');
+    page.press('Allow reminders', '[data-section="reminders"]');
+
+    await until(() => page.text('[data-section="reminders"]').includes('Notifications are refused'), 'the refusal shows');
+    expect(outlets.requests).toBe(1);
+    expect(page.text('[data-section="reminders"]')).toContain("allow notifications for this site in the browser's settings");
+    expect([...page.element.querySelectorAll('[data-section="reminders"] button')].map((b) => b.textContent?.trim())).toEqual([]);
+  });
+
+  it('when the official allows reminders, then the screen says reminders are on; a browser without them says so', async () => {
+    const { outlets } = await setUp();
+    const page = await openPage('arrive');
+    page.press('Allow reminders', '[data-section="reminders"]');
+    await until(() => page.text('[data-section="reminders"]').includes('Reminders on'), 'reminders are on');
+    expect(page.text('[data-section="reminders"]')).toContain('✓ Reminders on: when a reading falls due, and again when it is overdue');
+    page.fixture.destroy();
+
+    outlets.supports = false;
+    const again = await openPage('arrive');
+    expect(again.text('[data-section="reminders"]')).toContain('◌ This browser cannot show reminders outside the app.');
   });
 });

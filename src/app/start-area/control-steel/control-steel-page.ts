@@ -1,11 +1,11 @@
-import { ChangeDetectionStrategy, Component, DestroyRef, ElementRef, computed, effect, inject, input, signal, viewChild } from '@angular/core';
+import { ChangeDetectionStrategy, Component, DestroyRef, ElementRef, computed, effect, inject, input, signal, untracked, viewChild } from '@angular/core';
 import { toObservable, toSignal } from '@angular/core/rxjs-interop';
 import { MatButtonModule } from '@angular/material/button';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatInputModule } from '@angular/material/input';
 import { RouterLink } from '@angular/router';
-import { catchError, of, switchMap, type Observable } from 'rxjs';
-import { controlSteelStatus } from '../../../../shared/rules/control-steel';
+import { catchError, map, of, switchMap, type Observable } from 'rxjs';
+import { controlSteelStatus, type ControlSteelStatus } from '../../../../shared/rules/control-steel';
 import { formatTenths } from '../../../../shared/rules/measurement';
 import { RulesInputError } from '../../../../shared/rules/rules-error';
 import type { RecordKind } from '../../../../shared/sync/record-kinds';
@@ -19,7 +19,11 @@ import { clockTime } from './clock-time';
 import { controlLog, currentReadings, type ControlLogEntry } from './control-log';
 import { CONTROL_STEEL_CLOCK } from './control-steel-clock';
 import { instrumentProblem, keepInstrument, keepRules, readKeptInstrument, readKeptRules } from './control-steel-memory';
+import { ControlSteelReminder, type ReminderMoment } from './control-steel-reminder';
 import { countdownWords, type CountdownWords } from './countdown-words';
+import { highestSteelTemperature, highestSteelWords } from './highest-steel';
+import { MountingCheck } from './mounting-check';
+import { ReminderSettings } from './reminder-settings';
 import { SignaturePadField } from './signature-pad';
 import { logSignatures, readingsToSign, signedReadingIds, signingStatement } from './signed-log';
 import { LastScreen } from '../last-screen';
@@ -27,23 +31,27 @@ import { keepScreenAwake } from '../screen-awake';
 
 /** The control steel is read to 0.1 °C within this range (shade at a start area in winter). */
 export const controlReadingRange = { minTenths: -400, maxTenths: 200 } as const;
+/** Ice and air are keyed within this range: a plausibility check of ours against mistyping, not a rule value. */
+export const iceAndAirRange = { minTenths: -400, maxTenths: 300 } as const;
 
 type CountdownPanel =
   | { kind: 'loading' }
   | { kind: 'no-rules' }
   | { kind: 'problem'; message: string }
-  | { kind: 'ready'; words: CountdownWords };
+  | { kind: 'ready'; status: ControlSteelStatus; words: CountdownWords };
 
 /**
- * The control steel at the start: when the next reading is due, a glove keypad to log one, and the log
- * of every reading of the competition on this device, with corrections. The measuring official signs
- * the log here; a signed reading is frozen (never corrected on the device). Works offline once the
- * competition's rules have been on screen with signal.
+ * The control steel at the start: its mounting checklist before the first start, when the next reading is
+ * due (with reminders, and a large overdue state), a glove keypad to log one (with ice and air where the
+ * rules ask), and the log of every reading of the competition on this device, with corrections and the
+ * highest sled steel temperature so far. The measuring official signs the log here; a signed reading is
+ * frozen (never corrected on the device). Works offline once the competition's rules have been on screen
+ * with signal.
  */
 @Component({
   selector: 'rl-control-steel-page',
   changeDetection: ChangeDetectionStrategy.OnPush,
-  imports: [MatButtonModule, MatFormFieldModule, MatInputModule, RouterLink, GloveKeypad, SignaturePadField],
+  imports: [MatButtonModule, MatFormFieldModule, MatInputModule, RouterLink, GloveKeypad, SignaturePadField, MountingCheck, ReminderSettings],
   templateUrl: './control-steel-page.html',
   styleUrl: './control-steel-page.scss',
 })
@@ -56,17 +64,44 @@ export class ControlSteelPage {
   protected readonly names = inject(OfficialNames);
   private readonly clock = inject(CONTROL_STEEL_CLOCK);
   protected readonly range = controlReadingRange;
+  protected readonly iceAndAirRange = iceAndAirRange;
+  protected readonly celsius = (tenths: number) => formatTenths(tenths, 'celsius');
+  private readonly reminder = inject(ControlSteelReminder);
 
   protected readonly now = signal(this.clock());
 
   private readonly rules = competitionRulesResource(this.id);
   private readonly keptRules = computed(() => readKeptRules(this.id()));
-  private readonly profile = computed(() => (this.rules.hasValue() ? this.rules.value().profile : (this.keptRules()?.profile ?? null)));
+  protected readonly profile = computed(() => (this.rules.hasValue() ? this.rules.value().profile : (this.keptRules()?.profile ?? null)));
+  /** The rules ask for the ice and air temperature with every reading (artificial track). */
+  protected readonly asksIceAndAir = computed(() => this.profile()?.controlSteel.recordIceAndAir ?? false);
 
   private readonly logProblem = signal<string | null>(null);
   private readonly records = toSignal(this.watch('control-reading'), { initialValue: null });
   private readonly signatureRecords = toSignal(this.watch('log-signature'), { initialValue: null });
   private readonly photoRecords = toSignal(this.watch('photo'), { initialValue: null });
+  protected readonly mountingRecords = toSignal(this.watch('control-steel-mounting'), { initialValue: null });
+  private readonly measurementRecords = toSignal(this.watch('measurement'), { initialValue: null });
+  private readonly checkRecords = toSignal(this.watch('start-check'), { initialValue: null });
+  /** The competition's first run day, from this device's copy of its field data (null when it has none). */
+  protected readonly firstRunOn = toSignal(
+    toObservable(this.id).pipe(
+      switchMap((id) =>
+        this.store.fieldData(id).pipe(
+          // Without field data the first start simply begins on today's date; the official sets it anyway.
+          catchError(() => of(null)),
+        ),
+      ),
+      map((data) => data?.competition.firstRunOn ?? null),
+    ),
+    { initialValue: null },
+  );
+  /** "Highest sled steel temperature so far: …", posted with the control readings; null while the records are read. */
+  protected readonly highestSteel = computed(() => {
+    const measurements = this.measurementRecords();
+    const checks = this.checkRecords();
+    return measurements === null || checks === null ? null : highestSteelWords(highestSteelTemperature(measurements, checks));
+  });
   protected readonly log = computed(() => {
     const records = this.records();
     return records === null ? null : controlLog(records);
@@ -106,7 +141,8 @@ export class ControlSteelPage {
     const log = this.log();
     if (!log) return { kind: 'loading' };
     try {
-      return { kind: 'ready', words: countdownWords(controlSteelStatus(profile, currentReadings(log.entries), new Date(this.now()))) };
+      const status = controlSteelStatus(profile, currentReadings(log.entries), new Date(this.now()));
+      return { kind: 'ready', status, words: countdownWords(status) };
     } catch (error) {
       // A profile gap or a record with an unreadable time: say so, never count down from a guess.
       if (error instanceof RulesInputError) return { kind: 'problem', message: error.message };
@@ -114,7 +150,25 @@ export class ControlSteelPage {
     }
   });
 
+  protected readonly isOverdue = computed(() => {
+    const panel = this.countdown();
+    return panel.kind === 'ready' && panel.status.state === 'overdue';
+  });
+  /** What to remind of now: the reading fell due, or is overdue; null otherwise. Changes only when that does. */
+  private readonly reminderMoment = computed<ReminderMoment | null>(
+    () => {
+      const panel = this.countdown();
+      if (panel.kind !== 'ready' || !panel.status.dueAt) return null;
+      const { state, dueAt } = panel.status;
+      return state === 'due-now' ? { kind: 'due', dueAt } : state === 'overdue' ? { kind: 'overdue', dueAt } : null;
+    },
+    { equal: (a, b) => a?.kind === b?.kind && a?.dueAt === b?.dueAt },
+  );
+
   protected readonly instrument = signal(readKeptInstrument());
+  /** Ice and air kept for the next reading (whole tenths of °C), when the rules ask for them. */
+  protected readonly ice = signal<number | null>(null);
+  protected readonly air = signal<number | null>(null);
   /** A value whose save failed: the keypad comes back with it, so it need not be keyed again. */
   protected readonly unsavedTenths = signal<number | null>(null);
   protected readonly isSaving = signal(false);
@@ -151,6 +205,11 @@ export class ControlSteelPage {
     effect(() => {
       if (this.rules.hasValue()) keepRules(this.rules.value());
     });
+    effect(() => {
+      const moment = this.reminderMoment();
+      untracked(() => this.reminder.remind(moment));
+    });
+    // Browsers slow or stop this timer while the screen is off or the app is hidden: see ControlSteelReminder.
     const ticking = setInterval(() => this.now.set(this.clock()), 1000);
     inject(DestroyRef).onDestroy(() => clearInterval(ticking));
   }
@@ -206,13 +265,33 @@ export class ControlSteelPage {
     this.entryProblem.set(null);
   }
 
+  protected keepIce(tenths: number): void {
+    this.ice.set(tenths);
+    this.entryProblem.set(null);
+  }
+
+  protected keepAir(tenths: number): void {
+    this.air.set(tenths);
+    this.entryProblem.set(null);
+  }
+
   protected async saveReading(tenths: number): Promise<void> {
     if (this.isSaving()) return;
+    // A tap: the moment browsers allow the reminder's beep to be prepared.
+    this.reminder.prepareSound();
     this.savedMessage.set(null);
     const problem = instrumentProblem(this.instrument());
     if (problem) {
       this.entryProblem.set(problem);
       this.instrumentInput()?.nativeElement.focus();
+      return;
+    }
+    const ice = this.asksIceAndAir() ? this.ice() : null;
+    const air = this.asksIceAndAir() ? this.air() : null;
+    if (this.asksIceAndAir() && (ice === null || air === null)) {
+      this.unsavedTenths.set(tenths);
+      const missing = ice === null && air === null ? 'the ice and the air temperature' : ice === null ? 'the ice temperature' : 'the air temperature';
+      this.entryProblem.set(`Key ${missing} first and press Keep: the rules ask for ice and air with every control reading.`);
       return;
     }
     this.entryProblem.set(null);
@@ -222,11 +301,14 @@ export class ControlSteelPage {
         reading: { tenths, unit: 'celsius' },
         takenAt: new Date(this.clock()).toISOString(),
         instrumentId: this.instrument().trim(),
-        ice: null,
-        air: null,
+        ice: ice === null ? null : { tenths: ice, unit: 'celsius' },
+        air: air === null ? null : { tenths: air, unit: 'celsius' },
       });
       this.unsavedTenths.set(null);
-      this.savedMessage.set(`✓ Saved on this device ${clockTime(this.clock(), { seconds: true })}: ${formatTenths(tenths, 'celsius')}.`);
+      this.ice.set(null);
+      this.air.set(null);
+      const weather = ice !== null && air !== null ? ` (ice ${formatTenths(ice, 'celsius')}, air ${formatTenths(air, 'celsius')})` : '';
+      this.savedMessage.set(`✓ Saved on this device ${clockTime(this.clock(), { seconds: true })}: ${formatTenths(tenths, 'celsius')}${weather}.`);
     } catch (error) {
       this.unsavedTenths.set(tenths);
       this.entryProblem.set(`Not saved. ${messageOf(error)}`);
