@@ -5,7 +5,7 @@ export type Outcome = (typeof outcomes)[number];
 
 export const outcomeLabels: Record<Outcome, string> = {
   pass: 'Within the limit',
-  fail: 'Over the limit: violation to report',
+  fail: 'Fails the check: violation to report',
   'refer-to-delegate': 'Refer to the technical delegate',
   'not-judged': 'Not judged',
 };

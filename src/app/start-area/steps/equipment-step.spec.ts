@@ -110,7 +110,7 @@ describe('EquipmentStep', () => {
     markAll(natural);
     mark('helmet', 'missing');
     const card = text('rl-verdict-card');
-    expect(card).toContain('Over the limit: violation to report');
+    expect(card).toContain('Fails the check: violation to report');
     expect(card).toContain('No start without safety equipment: missing Helmet');
     expect(card).toContain('Confirmed present: 5 of 6');
     expect(button('helmet', 'missing').getAttribute('aria-pressed')).toBe('true');
@@ -133,7 +133,7 @@ describe('EquipmentStep', () => {
     mark('bib', 'present');
     mark('bib-fixed', 'missing');
     expect(host.emitted).toEqual([
-      { present: { 'race-equipment': true }, bibConfirmed: false },
+      { present: { 'race-equipment': true }, bibConfirmed: null },
       { present: { 'race-equipment': true }, bibConfirmed: true },
       { present: { 'race-equipment': true, 'bib-fixed': false }, bibConfirmed: true },
     ]);
@@ -151,12 +151,21 @@ describe('EquipmentStep', () => {
     expect(text('rl-verdict-card')).toContain('No start without safety equipment: missing Start-number bib fixed');
   });
 
-  it('brings a saved unconfirmed bib back as still to answer, and ignores saved items not on the list', () => {
+  it('brings a bib not answered yet back as still to answer, and ignores saved items not on the list', () => {
     const { element, text } = setUp((host) => {
       host.saved.set({ 'race-equipment': true, 'bib-fixed': true, helmet: true });
-      host.savedBib.set(false);
+      host.savedBib.set(null);
     });
     expect(element.querySelector('rl-verdict-card')).toBeNull();
     expect(text('[data-section="to-answer"]')).toBe('? Still to answer: Bib 17 worn and readable.');
+  });
+
+  it('brings a saved wrong bib back as marked missing', () => {
+    const { text, button } = setUp((host) => {
+      host.saved.set({ 'race-equipment': true, 'bib-fixed': true });
+      host.savedBib.set(false);
+    });
+    expect(button('bib', 'missing').getAttribute('aria-pressed')).toBe('true');
+    expect(text('[data-section="bib-missing"]')).toBe('✕ Bib not confirmed: the sled does not start until the bib is right.');
   });
 });

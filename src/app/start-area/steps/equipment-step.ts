@@ -4,11 +4,13 @@ import { judgeEquipment } from '../../../../shared/rules/equipment';
 import { RulesInputError } from '../../../../shared/rules/rules-error';
 import type { RulesProfile } from '../../../../shared/rules/rules-profile';
 import { VerdictCard } from '../verdict/verdict-card';
+import { bibNotConfirmedLine } from './equipment-judgement';
 
 export interface EquipmentAnswers {
   /** Only the items answered so far, by equipment id. */
   present: Record<string, boolean>;
-  bibConfirmed: boolean;
+  /** True when the bib is right, false when it is wrong or missing, null while not answered. */
+  bibConfirmed: boolean | null;
 }
 
 /** One row of the checklist: the bib first, then each equipment item of the profile. */
@@ -20,7 +22,7 @@ interface Row {
 
 const bibKey = 'bib';
 
-export const bibNotConfirmedLine = 'Bib not confirmed: the sled does not start until the bib is right.';
+export { bibNotConfirmedLine };
 
 /**
  * The first start check on both track types: the bib the start list expects and every item of the safety
@@ -40,10 +42,7 @@ export class EquipmentStep {
   readonly bib = input.required<number>();
   /** The equipment answers saved so far; answers for items no longer on the profile's list are ignored. */
   readonly saved = input<Record<string, boolean> | null>(null);
-  /**
-   * The saved bib answer. `answered` carries `bibConfirmed: false` both before the bib is answered and when
-   * it is marked missing, so a saved false keeps the answer given here and, on a fresh screen, is still to answer.
-   */
+  /** The saved bib answer: true right, false wrong or missing, null not answered yet. */
   readonly savedBibConfirmed = input<boolean | null>(null);
   readonly answered = output<EquipmentAnswers>();
 
@@ -51,13 +50,7 @@ export class EquipmentStep {
     const known = new Set(this.profile().equipment.map((item) => item.id));
     return Object.fromEntries(Object.entries(this.saved() ?? {}).filter(([id]) => known.has(id)));
   });
-  private readonly bibAnswer = linkedSignal<boolean | null, boolean | undefined>({
-    source: this.savedBibConfirmed,
-    computation: (saved, previous) => {
-      if (saved === true) return true;
-      return saved === false ? previous?.value : undefined;
-    },
-  });
+  private readonly bibAnswer = linkedSignal<boolean | undefined>(() => this.savedBibConfirmed() ?? undefined);
 
   protected readonly rows = computed<Row[]>(() => [
     { key: bibKey, label: `Bib ${this.bib()} worn and readable`, answer: this.bibAnswer() },
@@ -96,6 +89,6 @@ export class EquipmentStep {
     } else {
       this.present.update((present) => ({ ...present, [row.key]: isPresent }));
     }
-    this.answered.emit({ present: { ...this.present() }, bibConfirmed: this.bibAnswer() === true });
+    this.answered.emit({ present: { ...this.present() }, bibConfirmed: this.bibAnswer() ?? null });
   }
 }

@@ -25,3 +25,27 @@ export function judged(result: Attempt<Verdict>): StepJudgement {
     ? { kind: 'judged', verdict: result.value }
     : { kind: 'no-verdict', words: `No verdict: ${result.problem} Refer to the technical delegate.` };
 }
+
+/** Where a step stands in one word, for the step list and the result. */
+export type StepSummary = 'waiting' | 'pass' | 'fail' | 'refer' | 'no-verdict';
+
+/** A judgement as a summary: the engine's refer and its "not judged" (never a pass) are told apart. */
+export function summaryOf(judgement: StepJudgement): StepSummary {
+  if (judgement.kind !== 'judged') return judgement.kind;
+  switch (judgement.verdict.outcome) {
+    case 'pass':
+      return 'pass';
+    case 'fail':
+      return 'fail';
+    case 'refer-to-delegate':
+      return 'refer';
+    default:
+      return 'no-verdict';
+  }
+}
+
+/** The gravest of several summaries: a violation, then a refusal, then a referral, then readings still to take; pass only when all pass. */
+export function worstOf(summaries: readonly StepSummary[]): StepSummary {
+  const order: StepSummary[] = ['fail', 'no-verdict', 'refer', 'waiting'];
+  return order.find((summary) => summaries.includes(summary)) ?? 'pass';
+}

@@ -4,7 +4,8 @@ import { measurement, type Measurement } from '../../../../shared/rules/measurem
 import type { Discipline, RulesProfile } from '../../../../shared/rules/rules-profile';
 import { shippedProfile } from '../../../../shared/rules/shipped-profiles';
 import { profileWith } from '../../../../shared/rules/test-profiles';
-import { unknownBodyWeightWords, WeightStep, type SavedWeights, type WeighedReading } from './weight-step';
+import { unknownBodyWeightWords, type SavedWeights } from './weight-judgement';
+import { WeightStep, type WeighedReading } from './weight-step';
 
 // The natural-track sled maximum ships unset: 25.0 kg is this spec's own assumption, not a rule value.
 const natural = profileWith('natural', 'international', { 'weights.sledMax.singles-men': 250 });

@@ -1,32 +1,19 @@
 import { ChangeDetectionStrategy, Component, computed, input, output, signal } from '@angular/core';
-import { formatTenths, measurement, type Measurement } from '../../../../shared/rules/measurement';
+import { formatTenths, type Measurement } from '../../../../shared/rules/measurement';
 import type { Discipline, RulesProfile } from '../../../../shared/rules/rules-profile';
-import { judgeAthleteWithSled, judgeSledWeight, permittedUpperBound, type PermittedUpperBound } from '../../../../shared/rules/weights';
+import { permittedUpperBound, type PermittedUpperBound } from '../../../../shared/rules/weights';
 import { GloveKeypad } from '../../ui/glove-keypad/glove-keypad';
 import { VerdictCard } from '../verdict/verdict-card';
 import { decidesLine } from '../verdict/verdict-words';
-import { attempt, judged, type StepJudgement } from './step-judgement';
+import { attempt, type StepJudgement } from './step-judgement';
+import { unknownBodyWeightWords, weightJudgement, weightReadingRanges, weightReadingsFor, type SavedWeights, type WeightReading } from './weight-judgement';
 
-export type WeightReading = 'sled' | 'athlete-with-sled' | 'second-athlete';
 export interface WeighedReading {
   reading: WeightReading;
   tenths: number;
 }
-/** Tenths of a kg already saved, per reading. */
-export type SavedWeights = Partial<Record<WeightReading, number>>;
-
-export const unknownBodyWeightWords =
-  'The official body weight is not on this device, so the upper bound cannot be computed: refer to the technical delegate.';
-
-/** The keypad takes weights in these ranges: a plausibility check of ours against mistyping, not a rule value. */
-export const weightReadingRanges: Record<WeightReading, { minTenths: number; maxTenths: number }> = {
-  sled: { minTenths: 1, maxTenths: 1000 },
-  'athlete-with-sled': { minTenths: 1, maxTenths: 3000 },
-  'second-athlete': { minTenths: 1, maxTenths: 3000 },
-};
 
 const kg = (tenths: number): string => formatTenths(tenths, 'kilogram');
-const kgTenths = (tenths: number): Measurement => measurement(tenths, 'kilogram');
 
 type Bound = { kind: 'computed'; bound: PermittedUpperBound } | { kind: 'unknown' | 'refused'; words: string };
 
@@ -45,6 +32,8 @@ type Bound = { kind: 'computed'; bound: PermittedUpperBound } | { kind: 'unknown
 })
 export class WeightStep {
   readonly profile = input.required<RulesProfile>();
+  /** Names this sled's keypad drafts (e.g. "check:<id>"), so a value half keyed survives the app being killed; null keeps no draft. */
+  readonly draftScope = input<string | null>(null);
   readonly trackType = input.required<'natural' | 'artificial'>();
   readonly discipline = input.required<Discipline>();
   /** The athletes' official body weights when known; null when they are not on this device. */
@@ -69,17 +58,12 @@ export class WeightStep {
   );
 
   protected readonly keypads = computed(() => {
-    const isDoubles = this.discipline() === 'doubles';
-    const readings: { reading: WeightReading; label: string }[] = this.isNatural()
-      ? [{ reading: 'sled', label: 'Sled weight' }]
-      : isDoubles
-        ? [
-            { reading: 'athlete-with-sled', label: 'First athlete carrying the sled' },
-            { reading: 'second-athlete', label: 'Second athlete, without the sled' },
-          ]
-        : [{ reading: 'athlete-with-sled', label: 'Athlete carrying the sled' }];
     const values = this.values();
-    return readings.map((one) => ({ ...one, range: weightReadingRanges[one.reading], tenths: values[one.reading] ?? null }));
+    return weightReadingsFor({ trackType: this.trackType(), discipline: this.discipline() }).map((one) => ({
+      ...one,
+      range: weightReadingRanges[one.reading],
+      tenths: values[one.reading] ?? null,
+    }));
   });
 
   /** Artificial track only: the most the athlete(s) with the sled may weigh, shown before weighing. */
@@ -93,24 +77,12 @@ export class WeightStep {
     return result.problem === undefined ? { kind: 'computed', bound: result.value } : { kind: 'refused', words: `Cannot compute the upper bound: ${result.problem}` };
   });
 
-  protected readonly judgement = computed<StepJudgement>(() => {
-    const keypads = this.keypads();
-    const missing = keypads.filter((pad) => pad.tenths === null);
-    if (missing.length > 0) {
-      const still = missing.map((pad) => pad.label.toLowerCase()).join(' and the ');
-      return { kind: 'waiting', words: `No verdict yet: weigh the ${still}.` };
-    }
-    const readings = keypads.map((pad) => kgTenths(pad.tenths ?? 0));
-    const profile = this.profile();
-    const discipline = this.discipline();
-    if (this.isNatural()) return judged(attempt(() => judgeSledWeight({ profile, discipline, sled: readings[0]! })));
-    const bodyWeights = this.officialBodyWeights();
-    if (!bodyWeights) {
-      const recorded = keypads.map((pad) => `${pad.label} ${kg(pad.tenths ?? 0)}`).join(', ');
-      return { kind: 'no-verdict', words: `Recorded: ${recorded}. ${unknownBodyWeightWords}` };
-    }
-    return judged(attempt(() => judgeAthleteWithSled({ profile, discipline, officialBodyWeights: bodyWeights, readings })));
-  });
+  protected readonly judgement = computed<StepJudgement>(() =>
+    weightJudgement(
+      { profile: this.profile(), trackType: this.trackType(), discipline: this.discipline(), officialBodyWeights: this.officialBodyWeights() },
+      this.values(),
+    ),
+  );
 
   protected save(reading: WeightReading, label: string, tenths: number): void {
     this.entered.update((entered) => ({ ...entered, [reading]: tenths }));

@@ -36,7 +36,7 @@ describe('VerdictCard', () => {
   it('when a steel is over the limit, then it shows the mark and words, the reason and every number with its label', () => {
     // trade practice, no published source: natural, control −4.9 °C → limit +0.1 °C
     const { text, all } = setUp();
-    expect(text('.outcome')).toBe('⚠ Over the limit: violation to report');
+    expect(text('.outcome')).toBe('⚠ Fails the check: violation to report');
     expect(text('.reason')).toBe('Steel +0.2 °C is 0.1 °C over the limit of +0.1 °C.');
     expect(all('.number')).toEqual(['Steel (right, front): +0.2 °C', 'Control steel: −4.9 °C, read 5 min before', 'Limit: +0.1 °C']);
   });
@@ -76,7 +76,7 @@ describe('VerdictCard', () => {
 
   it.each([
     ['pass', '✓ Within the limit'],
-    ['fail', '⚠ Over the limit: violation to report'],
+    ['fail', '⚠ Fails the check: violation to report'],
     ['refer-to-delegate', '⚑ Refer to the technical delegate'],
     ['not-judged', '? Not judged'],
   ] as const)('when the outcome is %s, then mark and words both show, and the mark alone is hidden from screen readers', (outcome, words) => {
@@ -90,6 +90,6 @@ describe('VerdictCard', () => {
     const { element } = setUp((host) => host.heading.set('Right steel, spot 1 (front)'));
     const article = element.querySelector('article')!;
     const heading = element.querySelector(`#${article.getAttribute('aria-labelledby')}`);
-    expect(heading?.textContent?.replace(/\s+/g, ' ').trim()).toBe('Right steel, spot 1 (front) ⚠ Over the limit: violation to report');
+    expect(heading?.textContent?.replace(/\s+/g, ' ').trim()).toBe('Right steel, spot 1 (front) ⚠ Fails the check: violation to report');
   });
 });
