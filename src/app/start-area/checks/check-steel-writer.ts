@@ -2,7 +2,7 @@ import { firstValueFrom } from 'rxjs';
 import type { WriteResult } from '../../core/device-store/record-writer';
 import type { DeviceStore } from '../../core/sync/device-store';
 import type { SpotReading } from '../steel-temperatures/steel-spots';
-import { isAlreadyReported, savedAt, savedSteelReadings, steelMeasurementFields, steelViolationFields, type FailedSpot } from './check-steel';
+import { savedAt, savedSteelReadings, steelMeasurementFields } from './check-steel';
 
 export interface SteelReadingToSave {
   competitionId: string;
@@ -25,16 +25,4 @@ export async function saveSteelReading(store: DeviceStore, { competitionId, chec
   const replaced = reading.replacesSpot === undefined ? null : savedAt(saved, { steel: reading.steel, spot: reading.replacesSpot });
   if (replaced) return store.correctRecord(replaced.id, fields, 'read at another spot');
   return store.createRecord('measurement', competitionId, 'start', fields);
-}
-
-/**
- * Records the violation for the readings over the limit (once: a violation already recorded for the same
- * measurements is not recorded again), then sets the check's result to "violation".
- */
-export async function reportSteelViolation(store: DeviceStore, competitionId: string, checkId: string, failed: readonly FailedSpot[]): Promise<void> {
-  const violations = await firstValueFrom(store.watchRecords(competitionId, 'violation'));
-  if (!isAlreadyReported(violations, checkId, failed)) {
-    await store.createRecord('violation', competitionId, 'start', steelViolationFields(checkId, failed));
-  }
-  await store.updateRecord(checkId, { status: 'violation' });
 }

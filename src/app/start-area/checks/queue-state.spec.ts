@@ -8,10 +8,10 @@ const atMostTwo = profileWith('natural', 'national', { 'startArea.maxWaitingSled
 const atMostThree = profileWith('natural', 'national', { 'startArea.maxWaitingSleds': 3 });
 
 const startList: StartListEntry[] = [
-  { bib: 4, startOrder: 3, discipline: 'doubles', athlete: 'Cy Example', secondAthlete: 'Di Example' },
-  { bib: 9, startOrder: 1, discipline: 'singles-women', athlete: 'Ann Example', secondAthlete: null },
-  { bib: 2, startOrder: 2, discipline: 'singles-men', athlete: 'Bo Example', secondAthlete: null },
-  { bib: 7, startOrder: 4, discipline: 'singles-men', athlete: 'Ed Example', secondAthlete: null },
+  { bib: 4, startOrder: 3, discipline: 'doubles', athlete: 'Cy Example', secondAthlete: 'Di Example', officialBodyWeight: null, secondOfficialBodyWeight: null },
+  { bib: 9, startOrder: 1, discipline: 'singles-women', athlete: 'Ann Example', secondAthlete: null, officialBodyWeight: null, secondOfficialBodyWeight: null },
+  { bib: 2, startOrder: 2, discipline: 'singles-men', athlete: 'Bo Example', secondAthlete: null, officialBodyWeight: null, secondOfficialBodyWeight: null },
+  { bib: 7, startOrder: 4, discipline: 'singles-men', athlete: 'Ed Example', secondAthlete: null, officialBodyWeight: null, secondOfficialBodyWeight: null },
 ];
 
 let made = 0;

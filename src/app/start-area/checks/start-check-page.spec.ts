@@ -30,6 +30,7 @@ const pyrometer = (n: number, changes: Partial<Instrument>): Instrument => ({
   purpose: 'sled-pyrometer',
   calibratedUntil: '2027-07-08',
   assignedTo: 'official-one',
+  nominalMass: null,
   certificateSha256: null,
   ...changes,
 });
@@ -37,13 +38,17 @@ const controlSteelPyrometer = pyrometer(1, { purpose: 'control-steel-pyrometer' 
 const mine = pyrometer(2, {});
 const anotherOfficials = pyrometer(3, { assignedTo: 'official-two' });
 const expired = pyrometer(4, { calibratedUntil: '2027-01-08' });
+// The scale and its control weight, so the scale proof waits for a reading rather than failing for want of a weight.
+const scale = pyrometer(5, { purpose: 'scale', label: 'SCL-05' });
+const controlWeight = pyrometer(6, { purpose: 'control-weight', label: 'CWT-06', nominalMass: 20 });
 
 function fieldData(): FieldData {
   const data = fieldDataFor(competitionId);
   return {
     ...data,
     profile: { competitionId, frozenAt: '2027-01-09T05:00:00.000Z', profile: natural },
-    instruments: [controlSteelPyrometer, mine, anotherOfficials, expired],
+    startList: [...data.startList, { bib: 7, startOrder: 7, discipline: 'singles-women', athlete: 'Gil Example', secondAthlete: null, officialBodyWeight: null, secondOfficialBodyWeight: null }],
+    instruments: [controlSteelPyrometer, mine, anotherOfficials, expired, scale, controlWeight],
   };
 }
 
@@ -115,7 +120,14 @@ function render(checkId: string) {
     }
     fixture.detectChanges();
   };
-  return { fixture, element, text, buttons, press, tap, keyAndSave };
+  const showStep = (step: string) => {
+    fixture.detectChanges();
+    const button = element.querySelector<HTMLButtonElement>(`button[data-step="${step}"]`);
+    if (!button) throw new Error(`No step ${step}`);
+    button.click();
+    fixture.detectChanges();
+  };
+  return { fixture, element, text, buttons, press, tap, keyAndSave, showStep };
 }
 
 async function openCheck(options: SetUpOptions = {}, fields: Record<string, unknown> = startCheck(7)) {
@@ -126,9 +138,11 @@ async function openCheck(options: SetUpOptions = {}, fields: Record<string, unkn
   return { ...setup, page, id: record.id };
 }
 
-/** Opens the check with field data on the device and waits until the pyrometers are listed. */
+/** Opens the check with field data on the device, goes to the steel temperatures and waits until the pyrometers are listed. */
 async function openCheckWithPyrometers(options: SetUpOptions = {}, fields?: Record<string, unknown>) {
   const opened = await openCheck(options, fields);
+  await until(() => opened.page.element.querySelector('button[data-step="steel"]') !== null, 'the steps are listed');
+  opened.page.showStep('steel');
   await until(() => opened.page.element.querySelector('[data-section="pyrometer"]') !== null, 'the pyrometers are listed');
   return opened;
 }
@@ -138,11 +152,20 @@ const statusOf = async (store: DeviceStore, id: string) =>
   (await firstValueFrom(store.watchRecords(competitionId, 'start-check').pipe(filter((rs) => rs.length > 0)))).find((r) => r.id === id)?.fields['status'];
 
 describe('StartCheckPage', () => {
-  it('when the sled is cleared, then the result is saved, said in words, and the check no longer holds back an app update', async () => {
+  it('when the sled is cleared with steps still to do, then the official is asked first; the result is saved, said in words, and the check no longer holds back an app update', async () => {
     const { store, page, id } = await openCheck();
     expect(store.openChecks()).toBe(1);
+    await until(() => page.element.querySelector('button[data-step="steel"]') !== null, 'the steps are listed');
+    await until(() => page.text('[data-section="check-result"]').includes('Still to do'), 'the steps still to do are named');
+    // Natural track: equipment, the scale proof (none yet in this run), weight, dimensions, steel temperatures.
+    expect(page.text('[data-section="check-result"]')).toBe(
+      '◌ Still to do: Equipment and bib, Prove the scale, Weight, Dimensions, Steel temperatures. Finish the steps, or decide without them.',
+    );
 
     page.press('✓ Cleared to start');
+    expect(page.text('[data-section="confirm-result"]')).toContain('Clear bib 7 to start with steps still to do: Equipment and bib');
+    expect(await statusOf(store, id)).toBe('in-progress');
+    page.press('Yes, cleared to start');
 
     await until(() => page.text().includes('Cleared to start: saved on this device'), 'the result is saved');
     expect(await statusOf(store, id)).toBe('cleared');
@@ -205,8 +228,9 @@ describe('StartCheckPage', () => {
       // natural, control −4.9 °C read at 09:00 → limit +0.1 °C: trade practice, no published source.
       expect(page.text('rl-verdict-card[data-spot="left-1"]')).toContain('✓ Within the limit');
       expect(page.text('rl-verdict-card[data-spot="left-1"]')).toContain('Control steel: −4.9 °C, read 5 min before');
-      // Not complete and nothing over the limit: the sled can still be cleared.
+      // Not complete and nothing over the limit: the sled can still be cleared, once the official confirms.
       expect(page.buttons()).toContain('✓ Cleared to start');
+      expect(page.text('[data-step="steel"]')).toContain('◌ to do');
     });
 
     it('when a spot is read again, then the new value corrects the saved one with the reason "read again"', async () => {
@@ -284,16 +308,16 @@ describe('StartCheckPage', () => {
       expect(page.buttons()).not.toContain('⚠ Violation');
 
       page.press('⚠ Report the violation');
-      const question = page.text('[data-section="confirm-steel"]');
-      expect(question).toContain('Report a steel temperature violation for bib 7?');
-      expect(question).toContain('⚠ Left steel, spot 2: Steel +0.2 °C is 0.1 °C over the limit of +0.1 °C.');
+      const question = page.text('[data-section="confirm-failed"]');
+      expect(question).toContain('Report a violation for bib 7?');
+      expect(question).toContain('⚠ Steel temperatures: Steel +0.2 °C is 0.1 °C over the limit of +0.1 °C.');
       expect(question).toContain('Control steel: −4.9 °C, read 5 min before');
       expect(question).toContain('Limit: +0.1 °C');
       expect(await recordsOf(store, 'violation')).toEqual([]);
       expect(await statusOf(store, id)).toBe('in-progress');
 
       page.press('No, go back');
-      expect(page.element.querySelector('[data-section="confirm-steel"]')).toBeNull();
+      expect(page.element.querySelector('[data-section="confirm-failed"]')).toBeNull();
       page.press('⚠ Report the violation');
       page.press('Yes, report the violation');
 
@@ -322,11 +346,14 @@ describe('StartCheckPage', () => {
       page.tap('left-0');
       page.keyAndSave('5', '±');
 
-      await until(() => page.element.querySelector('[data-section="steel-result"]') !== null, 'the result says so');
-      expect(page.text('[data-section="steel-result"]')).toContain('? Steel temperatures not judged. Left steel, spot 1: No control steel reading was taken before this steel reading.');
+      await until(() => page.element.querySelector('[data-unsure-step="steel"]') !== null, 'the result says so');
+      expect(page.text('[data-section="check-result"]')).toContain('⚑ For the technical delegate.');
+      expect(page.text('[data-unsure-step="steel"]')).toBe(
+        'Steel temperatures: Left steel, spot 1: No control steel reading was taken before this steel reading. Read the control steel first, then judge again.',
+      );
       const results = page.buttons().filter((label) => ['⚑ Refer to the technical delegate', '✓ Cleared to start', '⚠ Violation'].includes(label));
       expect(results[0]).toBe('⚑ Refer to the technical delegate');
-      expect(page.element.querySelector('[data-section="steel-result"] + .results button')?.classList).toContain('primary-action');
+      expect(page.element.querySelector('[data-section="check-result"] + .results button')?.classList).toContain('primary-action');
     });
 
     it('when this is the athlete’s second sled in the run, then the spots their first sled was read at are preset', async () => {
@@ -345,6 +372,8 @@ describe('StartCheckPage', () => {
       }
       const { record: second } = await store.createRecord('start-check', competitionId, 'start', { ...startCheck(7), sled: 2 });
       const page = render(second.id);
+      await until(() => page.element.querySelector('button[data-step="steel"]') !== null, 'the steps are listed');
+      page.showStep('steel');
 
       await until(() => page.element.querySelector('button[data-spot="left-3"]')?.textContent?.includes('read here') === true, 'the preset shows');
       expect(page.text('button[data-spot="left-1"]')).toContain('◌ read here');
@@ -356,10 +385,11 @@ describe('StartCheckPage', () => {
     it('when the device has no field data, then it says so, asks the server, and no reading can be entered; the sled can still be cleared', async () => {
       const { page } = await openCheck({ withFieldData: false });
 
-      await until(() => page.element.querySelector('[data-section="steel-unavailable"]')?.textContent?.includes('not on this device') === true, 'the notice shows');
-      expect(page.text('[data-section="steel-unavailable"]')).toBe(
-        '◌ The instruments and rules of this competition are not on this device yet, so no steel temperature can be entered. Open Start checks once with signal.',
+      await until(() => page.element.querySelector('[data-section="steps-unavailable"]')?.textContent?.includes('not on this device') === true, 'the notice shows');
+      expect(page.text('[data-section="steps-unavailable"]')).toBe(
+        '◌ The instruments and rules of this competition are not on this device yet, so nothing can be measured or judged. Open Start checks once with signal.',
       );
+      expect(page.text('[data-section="check-result"]')).toContain('Nothing was measured or judged on this device.');
       expect(page.element.querySelector('rl-steel-temperature-step')).toBeNull();
       expect(page.element.querySelector('[data-section="pyrometer"]')).toBeNull();
       await until(() => TestBed.inject(HttpTestingController).match(fieldDataUrl(competitionId)).length === 1, 'the field data is asked for');

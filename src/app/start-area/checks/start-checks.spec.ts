@@ -79,10 +79,10 @@ function fieldDataWithList(): FieldData {
     profile: { competitionId, frozenAt: '2027-01-09T05:00:00.000Z', profile: atMostTwoWaiting },
     startList: [
       ...data.startList,
-      { bib: 4, startOrder: 4, discipline: 'singles-men', athlete: 'Ed Example', secondAthlete: null },
-      { bib: 5, startOrder: 5, discipline: 'singles-men', athlete: 'Fay Example', secondAthlete: null },
-      { bib: 6, startOrder: 6, discipline: 'singles-women', athlete: 'Gus Example', secondAthlete: null },
-      { bib: 7, startOrder: 7, discipline: 'singles-women', athlete: 'Hal Example', secondAthlete: null },
+      { bib: 4, startOrder: 4, discipline: 'singles-men', athlete: 'Ed Example', secondAthlete: null, officialBodyWeight: null, secondOfficialBodyWeight: null },
+      { bib: 5, startOrder: 5, discipline: 'singles-men', athlete: 'Fay Example', secondAthlete: null, officialBodyWeight: null, secondOfficialBodyWeight: null },
+      { bib: 6, startOrder: 6, discipline: 'singles-women', athlete: 'Gus Example', secondAthlete: null, officialBodyWeight: null, secondOfficialBodyWeight: null },
+      { bib: 7, startOrder: 7, discipline: 'singles-women', athlete: 'Hal Example', secondAthlete: null, officialBodyWeight: null, secondOfficialBodyWeight: null },
     ],
   };
 }
