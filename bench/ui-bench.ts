@@ -33,7 +33,7 @@ import { demoPassword } from '../server/ops/demo-users';
 import { freePort, startLocalPostgres } from '../server/ops/postgres';
 import { chromiumPath } from '../tests/support/browser';
 import { discardingMailer } from '../tests/support/fake-mail';
-import { keyIn } from '../tests/support/glove-keypad-keys';
+import { controlReadingKeypad, keyIn } from '../tests/support/glove-keypad-keys';
 
 const readings = 200;
 const warmUpReadings = 5;
@@ -163,9 +163,9 @@ async function measureKeypad(baseUrl: string, profileDir: string): Promise<Keypa
     await context.setOffline(true);
 
     for (let n = 0; n < warmUpReadings + readings; n += 1) {
-      await page.locator('rl-glove-keypad').waitFor();
-      await keyIn(page, readingText(n));
-      await page.getByRole('button', { name: 'Save', exact: true }).click();
+      await controlReadingKeypad(page).waitFor();
+      await keyIn(page, readingText(n), controlReadingKeypad(page));
+      await controlReadingKeypad(page).getByRole('button', { name: 'Save', exact: true }).click();
       await page.waitForFunction((count) => {
         const marks = (globalThis as unknown as BenchWindow).rimelogBench;
         return marks.commits.length >= count && marks.savedShown.length >= count;

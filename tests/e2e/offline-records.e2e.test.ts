@@ -2,7 +2,7 @@ import type { BrowserContext, Page } from 'playwright-core';
 import { describe, expect, it } from 'vitest';
 import { signInInBrowser } from '../support/browser-sign-in';
 import { useServerAndBrowser } from '../support/e2e-fixture';
-import { keyIn } from '../support/glove-keypad-keys';
+import { controlReadingKeypad, keyIn } from '../support/glove-keypad-keys';
 import { bandedPng } from '../support/test-png';
 
 const fixture = useServerAndBrowser();
@@ -55,8 +55,8 @@ describe('records made with no signal reach PostgreSQL', () => {
     await page.reload();
     await page.locator('[data-section="countdown"] [data-state="no-reading-yet"]').waitFor();
     await page.locator('input[name=instrument]').fill('PYRO-C1');
-    await keyIn(page, '-4.9');
-    await page.getByRole('button', { name: 'Save', exact: true }).click();
+    await keyIn(page, '-4.9', controlReadingKeypad(page));
+    await controlReadingKeypad(page).getByRole('button', { name: 'Save', exact: true }).click();
     await page.getByRole('status').filter({ hasText: 'Saved on this device' }).waitFor();
     await page.locator('[data-section="countdown"] [data-state="on-time"]').waitFor();
 

@@ -4,15 +4,16 @@ import type { Page } from 'playwright-core';
 import { describe, expect, it } from 'vitest';
 import { signInInBrowser } from '../support/browser-sign-in';
 import { useServerAndBrowser } from '../support/e2e-fixture';
-import { keyIn } from '../support/glove-keypad-keys';
+import { controlReadingKeypad, keyIn } from '../support/glove-keypad-keys';
 import { buttonBoxes, expectGloveSized, type Box } from '../support/glove-checks';
 
 // Every start-area screen, in both themes, through axe-core (WCAG 2.x A and AA, plus the 7:1 text
 // contrast of AAA) and our own glove measures: 64 px targets 12 px apart, keypad keys at least 15 mm.
 
 const fixture = useServerAndBrowser();
-const competitionId = '0193a5c0-0000-7000-8000-000000000001';
-const startArea = (path: string) => `${fixture.server.url}/competitions/${competitionId}/start/${path}`;
+const naturalRace = '0193a5c0-0000-7000-8000-000000000001';
+const artificialRace = '0193a5c0-0000-7000-8000-000000000003';
+const startArea = (path: string, competitionId = naturalRace) => `${fixture.server.url}/competitions/${competitionId}/start/${path}`;
 
 const axeSource = readFileSync(createRequire(import.meta.url).resolve('axe-core/axe.min.js'), 'utf8');
 const wcagTags = ['wcag2a', 'wcag2aa', 'wcag21a', 'wcag21aa', 'wcag22aa'];
@@ -79,14 +80,29 @@ async function signedIn(theme: 'glare' | 'dark'): Promise<Page> {
   return page;
 }
 
+// Bibs 41 and up are not on the demo start lists; bibs from 1 are, so their steps can be judged.
 let nextBib = 41;
-async function beginCheck(page: Page): Promise<number> {
-  const bib = nextBib++;
-  await page.goto(startArea('checks'));
+const nextListedBib: Record<string, number> = { [naturalRace]: 1, [artificialRace]: 1 };
+async function beginCheck(page: Page, competitionId = naturalRace, bib = nextBib++): Promise<number> {
+  await page.goto(startArea('checks', competitionId));
   await page.locator('input[name=bib]').fill(String(bib));
   await page.getByRole('button', { name: 'Begin check' }).click();
   await page.getByRole('heading', { name: `Run 1 · Bib ${bib}` }).waitFor();
   return bib;
+}
+
+/** Begins a check of a sled on the start list, so its steps can be judged. */
+async function beginListedCheck(page: Page, competitionId = naturalRace): Promise<number> {
+  const bib = nextListedBib[competitionId]!;
+  nextListedBib[competitionId] = bib + 1;
+  return beginCheck(page, competitionId, bib);
+}
+
+/** Begins a check of a sled on the start list and shows one of its steps. */
+async function showStep(page: Page, competitionId: string, step: string, shown: string): Promise<void> {
+  await beginListedCheck(page, competitionId);
+  await page.locator(`button[data-step="${step}"]`).click();
+  await page.locator(shown).first().waitFor();
 }
 
 interface Screen {
@@ -102,7 +118,7 @@ const screens: Screen[] = [
     async open(page) {
       await page.goto(startArea('control-steel'));
       await page.locator('[data-section="countdown"] [data-state]').waitFor();
-      await page.locator('rl-glove-keypad').waitFor();
+      await controlReadingKeypad(page).waitFor();
     },
   },
   {
@@ -110,11 +126,12 @@ const screens: Screen[] = [
     hasKeypad: true,
     async open(page) {
       await page.goto(startArea('control-steel'));
-      await page.locator('rl-glove-keypad').waitFor();
-      await keyIn(page, '99');
-      await page.getByRole('button', { name: 'Type instead' }).click();
-      await page.locator('rl-glove-keypad input').waitFor();
-      await page.locator('rl-glove-keypad .problem .mark').waitFor();
+      const keypad = controlReadingKeypad(page);
+      await keypad.waitFor();
+      await keyIn(page, '99', keypad);
+      await keypad.getByRole('button', { name: 'Type instead' }).click();
+      await keypad.locator('input').waitFor();
+      await keypad.locator('.problem .mark').waitFor();
     },
   },
   {
@@ -122,10 +139,11 @@ const screens: Screen[] = [
     hasKeypad: true,
     async open(page) {
       await page.goto(startArea('control-steel'));
-      await page.locator('rl-glove-keypad').waitFor();
+      const keypad = controlReadingKeypad(page);
+      await keypad.waitFor();
       await page.locator('input[name=instrument]').fill('PYRO-A1');
-      await keyIn(page, '-4.9');
-      await page.getByRole('button', { name: 'Save', exact: true }).click();
+      await keyIn(page, '-4.9', keypad);
+      await keypad.getByRole('button', { name: 'Save', exact: true }).click();
       await page.getByRole('status').filter({ hasText: 'Saved on this device' }).waitFor();
       await page.getByRole('button', { name: /^Correct the .* reading$/ }).first().click();
       await page.locator('[data-section="correction"] rl-glove-keypad').waitFor();
@@ -150,11 +168,68 @@ const screens: Screen[] = [
     },
   },
   {
+    name: 'a start check, equipment and bib',
+    hasKeypad: false,
+    open: (page) => showStep(page, naturalRace, 'equipment', 'rl-equipment-step'),
+  },
+  {
+    name: 'a start check, proving the scale',
+    hasKeypad: true,
+    async open(page) {
+      await showStep(page, naturalRace, 'scale-proof', '[data-section="scale"]');
+      await page.locator('[data-section="scale"] button[data-instrument="SCL-01"]').click();
+      await page.locator('rl-scale-proof-step rl-glove-keypad').waitFor();
+    },
+  },
+  {
+    name: 'a start check, weighing the sled (natural track)',
+    hasKeypad: true,
+    open: (page) => showStep(page, naturalRace, 'weight', 'rl-weight-step rl-glove-keypad'),
+  },
+  {
+    name: 'a start check, dimensions (natural track)',
+    hasKeypad: true,
+    open: (page) => showStep(page, naturalRace, 'dimensions', 'rl-dimensions-step rl-glove-keypad'),
+  },
+  {
+    name: 'a start check, steel temperatures with a spot chosen',
+    hasKeypad: true,
+    async open(page) {
+      await showStep(page, naturalRace, 'steel', 'rl-steel-temperature-step');
+      await page.locator('[data-section="pyrometer"] button[data-instrument="PYR-02"]').click();
+      await page.locator('button[data-spot="left-1"]').click();
+      await page.locator('rl-steel-temperature-step rl-glove-keypad').waitFor();
+    },
+  },
+  {
+    name: 'a start check, weighing the athlete with the sled against the upper bound (artificial track)',
+    hasKeypad: true,
+    async open(page) {
+      await showStep(page, artificialRace, 'weight', 'rl-weight-step rl-glove-keypad');
+      await page.locator('[data-section="bound"]').waitFor();
+    },
+  },
+  {
+    name: 'a start check, the gap probe (artificial track)',
+    hasKeypad: false,
+    open: (page) => showStep(page, artificialRace, 'gap-probe', 'rl-gap-probe-step'),
+  },
+  {
+    name: 'control steel on artificial track, with ice and air',
+    hasKeypad: true,
+    async open(page) {
+      await page.goto(startArea('control-steel', artificialRace));
+      await page.locator('[data-section="ice"] rl-glove-keypad').waitFor();
+    },
+  },
+  {
     name: 'a start check, cleared to start',
     hasKeypad: false,
     async open(page) {
-      await beginCheck(page);
+      await beginListedCheck(page);
       await page.getByRole('button', { name: '✓ Cleared to start' }).click();
+      // Steps are still to do on this sled, so clearing it is asked first.
+      await page.getByRole('button', { name: 'Yes, cleared to start' }).click();
       await page.getByRole('status').filter({ hasText: 'Cleared to start' }).waitFor();
       await page.getByRole('link', { name: 'Next sled' }).waitFor();
     },
@@ -177,7 +252,8 @@ describe.each(['glare', 'dark'] as const)('start area in the %s theme', (theme) 
       expect(boxes.length).toBeGreaterThan(2);
       expectGloveSized(boxes);
       const keys = await keypadKeyBoxes(page);
-      if (screen.hasKeypad) expect(keys.length).toBeGreaterThanOrEqual(15);
+      // Ten digits, the point, backspace, clear and OK; the ± key only where a value may be negative.
+      if (screen.hasKeypad) expect(keys.length).toBeGreaterThanOrEqual(14);
       else expect(keys).toEqual([]);
       for (const key of keys) {
         expect(key.width, `${key.label} width`).toBeGreaterThanOrEqual(fifteenMm);
