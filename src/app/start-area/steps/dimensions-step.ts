@@ -3,8 +3,6 @@ import { MatButtonModule } from '@angular/material/button';
 import { formatTenths } from '../../../../shared/rules/measurement';
 import type { DimensionRule, RulesProfile } from '../../../../shared/rules/rules-profile';
 import { GloveKeypad } from '../../ui/glove-keypad/glove-keypad';
-import { VerdictCard } from '../verdict/verdict-card';
-import { decidesLine } from '../verdict/verdict-words';
 import {
   allowedRangeText,
   dimensionJudgements,
@@ -14,6 +12,7 @@ import {
   type SavedDimensions,
 } from './dimension-readings';
 import type { StepJudgement } from './step-judgement';
+import { StepJudgementView } from './step-judgement-view';
 
 export interface MeasuredDimension {
   kind: string;
@@ -65,10 +64,11 @@ interface RuleBlock {
  * first, then the rest. One keypad at a time, on the place chosen or the next one still to measure. The
  * host saves each `measured` and `seen` and passes the saved values back in.
  */
+
 @Component({
   selector: 'rl-dimensions-step',
   changeDetection: ChangeDetectionStrategy.OnPush,
-  imports: [MatButtonModule, GloveKeypad, VerdictCard],
+  imports: [MatButtonModule, GloveKeypad, StepJudgementView],
   templateUrl: './dimensions-step.html',
   styleUrl: './dimensions-step.scss',
   host: { class: 'dimensions-step' },
@@ -91,7 +91,6 @@ export class DimensionsStep {
   private readonly chosenKey = signal<string | null>(null);
 
   protected readonly lastEntered = signal('');
-  protected readonly decidesLine = decidesLine;
 
   private readonly blocks = computed<RuleBlock[]>(() => {
     const values = this.values();

@@ -2,9 +2,9 @@ import { ChangeDetectionStrategy, Component, computed, input, linkedSignal, outp
 import { MatButtonModule } from '@angular/material/button';
 import { gapProbeResultLabels, gapProbeResults, judgeGapProbe, type GapProbeResult } from '../../../../shared/rules/gap-probe';
 import type { RulesProfile } from '../../../../shared/rules/rules-profile';
-import { VerdictCard } from '../verdict/verdict-card';
-import { decidesLine, outcomeMarks } from '../verdict/verdict-words';
+import { outcomeMarks } from '../verdict/verdict-words';
 import { feelerThicknessText, gapProbeJudgement } from './gap-probe-judgement';
+import { StepJudgementView } from './step-judgement-view';
 import { attempt } from './step-judgement';
 
 /**
@@ -14,7 +14,7 @@ import { attempt } from './step-judgement';
 @Component({
   selector: 'rl-gap-probe-step',
   changeDetection: ChangeDetectionStrategy.OnPush,
-  imports: [MatButtonModule, VerdictCard],
+  imports: [MatButtonModule, StepJudgementView],
   templateUrl: './gap-probe-step.html',
   styleUrl: './gap-probe-step.scss',
   host: { class: 'gap-probe-step' },
@@ -26,7 +26,6 @@ export class GapProbeStep {
 
   /** The choice made here, kept until the host passes a saved result back in. */
   protected readonly chosen = linkedSignal(() => this.saved());
-  protected readonly decidesLine = decidesLine;
 
   protected readonly how = computed(() => {
     const thickness = feelerThicknessText(this.profile());

@@ -3,9 +3,8 @@ import { MatButtonModule } from '@angular/material/button';
 import { formatTenths } from '../../../../shared/rules/measurement';
 import type { RulesProfile } from '../../../../shared/rules/rules-profile';
 import { GloveKeypad } from '../../ui/glove-keypad/glove-keypad';
-import { VerdictCard } from '../verdict/verdict-card';
-import { decidesLine } from '../verdict/verdict-words';
 import { knownTotal, scaleProofJudgement, type ControlWeight, type ScaleProofEntry } from './scale-proof';
+import { StepJudgementView } from './step-judgement-view';
 
 export interface ScaleProved {
   controlWeightIds: string[];
@@ -23,10 +22,11 @@ const kg = (tenths: number): string => formatTenths(tenths, 'kilogram');
  * official chooses which went on the scale and keys in what it reads. The host saves each `proved` and
  * passes it back in as `saved`.
  */
+
 @Component({
   selector: 'rl-scale-proof-step',
   changeDetection: ChangeDetectionStrategy.OnPush,
-  imports: [MatButtonModule, GloveKeypad, VerdictCard],
+  imports: [MatButtonModule, GloveKeypad, StepJudgementView],
   templateUrl: './scale-proof-step.html',
   styleUrl: './scale-proof-step.scss',
   host: { class: 'scale-proof-step' },
@@ -49,7 +49,6 @@ export class ScaleProofStep {
   /** The reading with the chosen weights; a new choice of weights needs a new reading. */
   private readonly entry = linkedSignal<ScaleProofEntry | null>(() => this.saved());
   protected readonly lastEntered = signal('');
-  protected readonly decidesLine = decidesLine;
   protected readonly readingRange = readingRange;
 
   protected readonly weightRows = computed(() => {

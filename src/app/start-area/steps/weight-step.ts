@@ -3,8 +3,7 @@ import { formatTenths, type Measurement } from '../../../../shared/rules/measure
 import type { Discipline, RulesProfile } from '../../../../shared/rules/rules-profile';
 import { permittedUpperBound, type PermittedUpperBound } from '../../../../shared/rules/weights';
 import { GloveKeypad } from '../../ui/glove-keypad/glove-keypad';
-import { VerdictCard } from '../verdict/verdict-card';
-import { decidesLine } from '../verdict/verdict-words';
+import { StepJudgementView } from './step-judgement-view';
 import { attempt, type StepJudgement } from './step-judgement';
 import { unknownBodyWeightWords, weightJudgement, weightReadingRanges, weightReadingsFor, type SavedWeights, type WeightReading } from './weight-judgement';
 
@@ -25,7 +24,7 @@ type Bound = { kind: 'computed'; bound: PermittedUpperBound } | { kind: 'unknown
 @Component({
   selector: 'rl-weight-step',
   changeDetection: ChangeDetectionStrategy.OnPush,
-  imports: [GloveKeypad, VerdictCard],
+  imports: [GloveKeypad, StepJudgementView],
   templateUrl: './weight-step.html',
   styleUrl: './weight-step.scss',
   host: { class: 'weight-step' },
@@ -45,7 +44,6 @@ export class WeightStep {
   private readonly entered = signal<SavedWeights>({});
   private readonly values = computed<SavedWeights>(() => ({ ...this.saved(), ...this.entered() }));
   protected readonly lastEntered = signal('');
-  protected readonly decidesLine = decidesLine;
   protected readonly kg = kg;
 
   protected readonly isNatural = computed(() => this.trackType() === 'natural');
