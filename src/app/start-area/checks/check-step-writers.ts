@@ -33,16 +33,8 @@ export function saveMeasurement(store: DeviceStore, saved: readonly LiveMeasurem
   return again ? store.correctRecord(again.id, fields, 'measured again') : store.createRecord('measurement', m.competitionId, 'start', fields);
 }
 
-export interface ScaleProofToSave {
-  competitionId: string;
-  checkId: string;
-  run: number;
-  scaleId: string;
-  controlWeightIds: string[];
-  knownTenths: number;
-  readingTenths: number;
-  takenAt: string;
-}
+/** A proof as saved, less its record id; made in a check, of a competition. */
+export type ScaleProofToSave = Omit<SavedScaleProof, 'id' | 'checkId'> & { competitionId: string; checkId: string };
 
 /** Saves a scale proof; proving again in the same check corrects the proof made there. */
 export function saveScaleProof(store: DeviceStore, latest: SavedScaleProof | null, p: ScaleProofToSave): Promise<WriteResult> {
