@@ -100,7 +100,8 @@ export class CheckSession {
     const profile = this.profile();
     const check = this.check();
     const answers = this.answers();
-    if (!profile || !check || !answers) return [];
+    // Until every record the steps are judged from is read, nothing is listed (no step appears and vanishes).
+    if (!profile || !check || !answers || this.measurements() === null || this.scaleProofRecords() === null) return [];
     return stepStates({
       profile,
       checkId: check.id,

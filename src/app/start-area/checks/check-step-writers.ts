@@ -6,7 +6,7 @@ import type { LocalRecord } from '../../core/device-store/device-db';
 import type { WriteResult } from '../../core/device-store/record-writer';
 import type { DeviceStore } from '../../core/sync/device-store';
 import { stepRules, type StepState } from './check-plan';
-import { measurementAt, type LiveMeasurement, type SavedScaleProof } from './check-records';
+import { liveMeasurements, liveScaleProofs, measurementAt, type SavedScaleProof } from './check-records';
 import { isAlreadyReported, steelViolationFields, type FailedSpot } from './check-steel';
 
 const violationFields = recordFieldSchemas.violation;
@@ -25,9 +25,10 @@ export interface MeasurementToSave {
 
 /**
  * Saves one measurement of a check. Measuring the same place again corrects the value saved there, so the
- * earlier value stays as evidence (measurements are never edited).
+ * earlier value stays as evidence (measurements are never edited). Reads the records afresh, so call one at a time.
  */
-export function saveMeasurement(store: DeviceStore, saved: readonly LiveMeasurement[], m: MeasurementToSave): Promise<WriteResult> {
+export async function saveMeasurement(store: DeviceStore, m: MeasurementToSave): Promise<WriteResult> {
+  const saved = liveMeasurements(await firstValueFrom(store.watchRecords(m.competitionId, 'measurement')), m.checkId, m.what);
   const fields = { checkId: m.checkId, what: m.what, place: m.place, value: m.value, takenAt: m.takenAt, instrumentId: m.instrumentId };
   const again = measurementAt(saved, m.place);
   return again ? store.correctRecord(again.id, fields, 'measured again') : store.createRecord('measurement', m.competitionId, 'start', fields);
@@ -36,8 +37,9 @@ export function saveMeasurement(store: DeviceStore, saved: readonly LiveMeasurem
 /** A proof as saved, less its record id; made in a check, of a competition. */
 export type ScaleProofToSave = Omit<SavedScaleProof, 'id' | 'checkId'> & { competitionId: string; checkId: string };
 
-/** Saves a scale proof; proving again in the same check corrects the proof made there. */
-export function saveScaleProof(store: DeviceStore, latest: SavedScaleProof | null, p: ScaleProofToSave): Promise<WriteResult> {
+/** Saves a scale proof; proving again in the same check corrects the proof made there. Reads the records afresh. */
+export async function saveScaleProof(store: DeviceStore, p: ScaleProofToSave): Promise<WriteResult> {
+  const latest = liveScaleProofs(await firstValueFrom(store.watchRecords(p.competitionId, 'scale-proof'))).filter((proof) => proof.run === p.run).at(-1) ?? null;
   const fields = {
     run: p.run,
     scaleId: p.scaleId,
@@ -47,7 +49,7 @@ export function saveScaleProof(store: DeviceStore, latest: SavedScaleProof | nul
     takenAt: p.takenAt,
     checkId: p.checkId,
   };
-  return latest && latest.checkId === p.checkId && latest.run === p.run
+  return latest && latest.checkId === p.checkId
     ? store.correctRecord(latest.id, fields, 'proved again')
     : store.createRecord('scale-proof', p.competitionId, 'start', fields);
 }

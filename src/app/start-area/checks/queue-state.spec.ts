@@ -63,12 +63,13 @@ describe('startQueue', () => {
     expect(words('in-progress')).toBe('… Check under way (closed to preparation since 09:30)');
     expect(words('cleared')).toBe('✓ Cleared, waiting at the start');
     expect(words('cleared', { startedAt: '2027-01-09T09:41:00.000Z' })).toBe('→ Started at 09:41');
-    expect(words('referred')).toBe('⚑ Referred to the technical delegate');
+    expect(words('referred')).toBe('⚑ Referred to the technical delegate, waiting at the start');
+    expect(words('referred', { startedAt: '2027-01-09T09:42:00.000Z' })).toBe('→ Started at 09:42');
     expect(words('violation')).toBe('⚠ Violation reported');
     expect(words('withdrawn')).toBe('✕ Withdrawn');
   });
 
-  it('when sleds are cleared and not started, then they count as waiting; checks under way, started, referred and violation sleds do not', () => {
+  it('when sleds are cleared and not started, then they count as waiting; checks under way, started and violation sleds do not', () => {
     const checks = [
       check(9, 'cleared'),
       check(2, 'in-progress'),
@@ -78,6 +79,15 @@ describe('startQueue', () => {
     const queue = startQueue({ startList, checks, profile: atMostTwo });
     expect(queue.waiting).toBe(1);
     expect(queue.mayBegin).toMatchObject({ allowed: true, reason: 'One controlled sled is waiting (at most 2 at once): this sled may be checked.' });
+  });
+
+  it('when a sled is referred to the delegate and has not started, then it waits at the start and takes a place', () => {
+    const referred = startQueue({ startList, checks: [check(9, 'cleared'), check(2, 'referred')], profile: atMostTwo });
+    expect(referred.waiting).toBe(2);
+    expect(referred.mayBegin.allowed).toBe(false);
+    const started = startQueue({ startList, checks: [check(9, 'cleared'), check(2, 'referred', { startedAt: '2027-01-09T09:41:00.000Z' })], profile: atMostTwo });
+    expect(started.waiting).toBe(1);
+    expect(started.entries.find((e) => e.bib === 2)?.state).toBe('started');
   });
 
   it('when as many sleds wait as the rules allow, then no check may begin and the engine says why', () => {

@@ -35,7 +35,7 @@ export interface StartQueue {
   entries: QueueEntry[];
   /** The first sled still to check, in start order. */
   next: QueueEntry | null;
-  /** Controlled sleds waiting at the start: cleared and not started. */
+  /** Controlled sleds waiting at the start: cleared or referred, and not started. */
   waiting: number;
   mayBegin: BeginRuling;
 }
@@ -67,8 +67,9 @@ export function startQueue({ startList, checks, profile }: StartQueueInput): Sta
 
   // The engine counts "sleds already checked and waiting to start", and a start-check record says a cleared
   // sled waits until it has started. A check under way is not a controlled sled yet, so it does not count;
-  // every sled checked in the run counts, on the list or not. Referred or violation sleds are not cleared.
-  const waiting = checks.filter((check) => check.status === 'cleared' && check.startedAt === null).length;
+  // every sled checked in the run counts, on the list or not. A referred sled waits at the start for the
+  // delegate and may still start (a gap probe referral does), so it counts; a violation sled is out of the queue.
+  const waiting = checks.filter((check) => (check.status === 'cleared' || check.status === 'referred') && check.startedAt === null).length;
   return {
     entries,
     next: entries.find((entry) => entry.state === 'to-check') ?? null,
@@ -95,6 +96,8 @@ function stateOf(check: CheckRow | null): QueueState {
       return 'under-way';
     case 'cleared':
       return check.startedAt === null ? 'waiting' : 'started';
+    case 'referred':
+      return check.startedAt === null ? 'referred' : 'started';
     default:
       return check.status;
   }
@@ -126,7 +129,7 @@ export function queueStateWords({ state, check }: Pick<QueueEntry, 'state' | 'ch
     case 'started':
       return check.startedAt === null ? '→ Started' : `→ Started at ${timeOf(check.startedAt)}`;
     case 'referred':
-      return '⚑ Referred to the technical delegate';
+      return '⚑ Referred to the technical delegate, waiting at the start';
     case 'violation':
       return '⚠ Violation reported';
     case 'withdrawn':

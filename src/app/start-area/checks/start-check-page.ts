@@ -86,6 +86,12 @@ export class StartCheckPage {
 
   constructor() {
     effect(() => this.session.bind(this.id(), this.checkId()));
+    // The step first shown stays on screen (and comes back after a reload) until the official moves on, so a
+    // verdict just given is never swapped for the next step under their glove.
+    effect(() => {
+      const step = this.currentStep();
+      if (step && this.chosenStep() === null) untracked(() => this.showStep(step.id));
+    });
     this.countOpenCheck();
     this.askForMissingFieldData();
     inject(LastScreen).rememberWhileShown();

@@ -231,7 +231,7 @@ describe('StartChecksPage start queue', () => {
     expect(stateOf(1)).toBe(`→ Started at ${clockTime('2027-01-14T09:41:00.000Z')}`);
     expect(stateOf(2)).toBe('✓ Cleared, waiting at the start');
     expect(stateOf(3)).toBe(`… Check under way (closed to preparation since ${clockTime(startCheck(3).beganAt)})`);
-    expect(stateOf(4)).toBe('⚑ Referred to the technical delegate');
+    expect(stateOf(4)).toBe('⚑ Referred to the technical delegate, waiting at the start');
     expect(stateOf(5)).toBe('⚠ Violation reported');
     expect(stateOf(6)).toBe('✕ Withdrawn');
     expect(stateOf(7)).toBe('○ To check');

@@ -278,7 +278,7 @@ describe('SteelTemperatureStep', () => {
     }
   });
 
-  it('when a reading is half keyed and the app is killed, then the same spot of the same check shows it again, marked not saved', () => {
+  it('when a reading is half keyed and the app is killed, then the same check opens on the same spot and shows it again, marked not saved', () => {
     const inCheck = (h: Host) => h.draftScope.set('check:c1');
     const first = setUp(inCheck);
     first.tap('left-1');
@@ -287,6 +287,9 @@ describe('SteelTemperatureStep', () => {
     first.fixture.destroy();
 
     const again = mount(inCheck);
+    // It opens on the spot that was being read, with no tap.
+    expect(again.text('.glove-keypad output')).toBe('−4. °C');
+    expect(again.text('.glove-keypad')).toContain('Left steel, spot 2');
     again.tap('right-0');
     expect(again.text('.glove-keypad output')).toBe('No value yet');
     again.tap('left-1');

@@ -14,9 +14,12 @@ import {
   viewChild,
 } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
+import { steels } from '../../../../shared/rules/dimensions';
 import type { RulesProfile } from '../../../../shared/rules/rules-profile';
 import type { SteelPosition, TimedReading } from '../../../../shared/rules/temperature';
 import { GloveKeypad } from '../../ui/glove-keypad/glove-keypad';
+import { KEYPAD_DRAFT_CLOCK } from '../../ui/glove-keypad/keypad-draft-clock';
+import { readKeypadDraft } from '../../ui/glove-keypad/keypad-drafts';
 import { VerdictCard } from '../verdict/verdict-card';
 import { decidesLine } from '../verdict/verdict-words';
 import { SledDiagram, type SpotShown } from './sled-diagram';
@@ -30,6 +33,7 @@ import {
   nextPresetSpot,
   presetPlan,
   shortSpotName,
+  spotIndices,
   spotKey,
   type Spot,
   type SpotKey,
@@ -84,8 +88,12 @@ export class SteelTemperatureStep {
   protected readonly current = computed(() => currentReadings(this.all()));
   protected readonly plan = computed(() => presetPlan(this.preset()));
 
-  /** Starts on the first preset spot not read yet; the official may tap any other. */
-  protected readonly selected = linkedSignal<Spot | null>(() => nextPresetSpot(this.plan(), untracked(this.current)));
+  private readonly draftNow = inject(KEYPAD_DRAFT_CLOCK);
+  /**
+   * Starts where a value was half keyed when the app was killed, else on the first preset spot not read
+   * yet; the official may tap any other.
+   */
+  protected readonly selected = linkedSignal<Spot | null>(() => this.spotWithDraft() ?? nextPresetSpot(this.plan(), untracked(this.current)));
   /** A tap on a third spot of a steel read at two: the spots it could replace. */
   protected readonly question = signal<{ spot: Spot; readSpots: number[] } | null>(null);
   private readonly replacesSpot = signal<number | null>(null);
@@ -118,6 +126,17 @@ export class SteelTemperatureStep {
     }));
   });
 
+  /** The spot whose keypad draft is the newest, when this sled has one. */
+  private spotWithDraft(): Spot | null {
+    const scope = this.draftScope();
+    if (scope === null) return null;
+    const now = this.draftNow();
+    const drafts = steels.flatMap((steel) =>
+      spotIndices.map((spot) => ({ spot: { steel, spot }, draft: readKeypadDraft(steelDraftKey(scope, { steel, spot }), now) })),
+    );
+    return drafts.filter((d) => d.draft !== null).sort((a, b) => (b.draft?.savedAt ?? 0) - (a.draft?.savedAt ?? 0))[0]?.spot ?? null;
+  }
+
   protected readonly summary = computed(() => describeSled(this.judgement(), this.current()));
 
   protected readonly keypad = computed(() => {
@@ -129,7 +148,7 @@ export class SteelTemperatureStep {
     return {
       round: `${spotKey(spot)}#${this.keypadRound()}`,
       label: `${shortSpotName(spot)}${replacing}: steel temperature`,
-      draftKey: scope === null ? null : `${scope}:steel:${spot.steel}:${spot.spot}`,
+      draftKey: scope === null ? null : steelDraftKey(scope, spot),
     };
   });
 
@@ -188,3 +207,6 @@ export class SteelTemperatureStep {
     this.selected.set(nextPresetSpot(this.plan(), this.current()));
   }
 }
+
+/** Where a half-keyed reading of one spot is kept while the app may be killed. */
+const steelDraftKey = (scope: string, { steel, spot }: Spot): string => `${scope}:steel:${steel}:${spot}`;

@@ -23,7 +23,10 @@ import { SaveNotice, SaveNoticeView } from './save-notice';
       <rl-check-instrument-picker heading="Angle gauge" section="angle-gauge" [choices]="angles.choices()" [chosenId]="angles.chosen()?.id ?? null" (chosen)="angles.choose($event)" />
     }
     <fieldset class="entry" [disabled]="!session.isOpen()">
-      <rl-dimensions-step [profile]="session.profile()!" [saved]="saved()" [draftScope]="draftScope()" (measured)="measure($event)" (seen)="see($event)" />
+      <!-- Afresh after a refused or failed save, so no unsaved value stays on screen. -->
+      @for (key of [notice.round()]; track key) {
+        <rl-dimensions-step [profile]="session.profile()!" [saved]="saved()" [draftScope]="draftScope()" (measured)="measure($event)" (seen)="see($event)" />
+      }
     </fieldset>
     <rl-save-notice [notice]="notice" />
   `,
@@ -54,7 +57,7 @@ export class CheckDimensions {
     }
     const key = place === null ? kind : `${kind}:${place}`;
     const m = { competitionId: this.session.competitionId(), checkId: this.session.checkId(), what: dimensioned, place: key, value: { tenths, unit: rule.unit }, instrumentId, takenAt };
-    return this.notice.run(() => saveMeasurement(this.session.store, this.session.dimensions(), m), `${rule.label}: ${formatTenths(tenths, rule.unit)} saved on this device`);
+    return this.notice.run(() => saveMeasurement(this.session.store, m), `${rule.label}: ${formatTenths(tenths, rule.unit)} saved on this device`);
   }
 
   protected see({ kind, acceptable }: { kind: string; acceptable: boolean }): Promise<boolean> {

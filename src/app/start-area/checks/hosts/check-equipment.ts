@@ -12,13 +12,16 @@ import { SaveNotice, SaveNoticeView } from './save-notice';
     @if (session.profile(); as profile) {
       @if (session.check(); as check) {
         <fieldset class="entry" [disabled]="!session.isOpen()">
-          <rl-equipment-step
-            [profile]="profile"
-            [bib]="check.bib"
-            [saved]="session.answers()?.equipment ?? null"
-            [savedBibConfirmed]="session.answers()?.bibConfirmed ?? null"
-            (answered)="save($event)"
-          />
+          <!-- Afresh after a refused or failed save, so no unsaved value stays on screen. -->
+          @for (key of [notice.round()]; track key) {
+            <rl-equipment-step
+              [profile]="profile"
+              [bib]="check.bib"
+              [saved]="session.answers()?.equipment ?? null"
+              [savedBibConfirmed]="session.answers()?.bibConfirmed ?? null"
+              (answered)="save($event)"
+            />
+          }
         </fieldset>
       }
     }

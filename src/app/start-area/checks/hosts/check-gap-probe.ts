@@ -14,7 +14,10 @@ import { SaveNotice, SaveNoticeView } from './save-notice';
   template: `
     <rl-check-instrument-picker heading="Gap probe" section="gap-probe" [choices]="probe.choices()" [chosenId]="probe.chosen()?.id ?? null" (chosen)="probe.choose($event)" />
     <fieldset class="entry" [disabled]="!session.isOpen() || !probe.chosen()">
-      <rl-gap-probe-step [profile]="session.profile()!" [saved]="session.answers()?.gapProbe?.result ?? null" (probed)="save($event)" />
+      <!-- Afresh after a refused or failed save, so no unsaved value stays on screen. -->
+      @for (key of [notice.round()]; track key) {
+        <rl-gap-probe-step [profile]="session.profile()!" [saved]="session.answers()?.gapProbe?.result ?? null" (probed)="save($event)" />
+      }
     </fieldset>
     <rl-save-notice [notice]="notice" />
   `,

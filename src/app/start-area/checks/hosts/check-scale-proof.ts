@@ -17,14 +17,17 @@ import { SaveNotice, SaveNoticeView } from './save-notice';
     <rl-check-instrument-picker heading="Scale" section="scale" [choices]="scale.choices()" [chosenId]="scale.chosen()?.id ?? null" (chosen)="scale.choose($event)" />
     @if (scale.chosen(); as chosen) {
       <fieldset class="entry" [disabled]="!session.isOpen()">
-        <rl-scale-proof-step
-          [profile]="session.profile()!"
-          [scaleLabel]="chosen.label"
-          [controlWeights]="session.controlWeights()"
-          [saved]="saved()"
-          [draftScope]="draftScope()"
-          (proved)="save($event)"
-        />
+        <!-- Afresh after a refused or failed save, so no unsaved value stays on screen. -->
+        @for (key of [notice.round()]; track key) {
+          <rl-scale-proof-step
+            [profile]="session.profile()!"
+            [scaleLabel]="chosen.label"
+            [controlWeights]="session.controlWeights()"
+            [saved]="saved()"
+            [draftScope]="draftScope()"
+            (proved)="save($event)"
+          />
+        }
       </fieldset>
     }
     <rl-save-notice [notice]="notice" />
@@ -51,6 +54,6 @@ export class CheckScaleProof {
     }
     const check = this.session.check();
     const proof = { ...proved, competitionId: this.session.competitionId(), checkId: this.session.checkId(), run: check?.run ?? 1, scaleId, takenAt };
-    return this.notice.run(() => saveScaleProof(this.session.store, this.latest(), proof), `Scale proof (${formatTenths(proved.readingTenths, 'kilogram')}) saved on this device`);
+    return this.notice.run(() => saveScaleProof(this.session.store, proof), `Scale proof (${formatTenths(proved.readingTenths, 'kilogram')}) saved on this device`);
   }
 }

@@ -1,4 +1,4 @@
-import { ChangeDetectionStrategy, Component, computed, inject, signal } from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, inject } from '@angular/core';
 import { celsius, shortSpotName, type SpotReading } from '../../steel-temperatures/steel-spots';
 import { SteelTemperatureStep } from '../../steel-temperatures/steel-temperature-step';
 import { CheckInstrumentPicker } from '../check-instrument-picker';
@@ -59,8 +59,7 @@ export class CheckSteelTemperatures {
     return this.pyrometer.chosen() ? null : 'Choose a calibrated sled pyrometer issued to you first.';
   });
   /** A new step for each check, and a fresh one after a failed save so no unsaved reading stays on screen. */
-  private readonly round = signal(0);
-  protected readonly stepKey = computed(() => `${this.session.checkId()}#${this.round()}`);
+  protected readonly stepKey = computed(() => `${this.session.checkId()}#${this.notice.round()}`);
   private saving: Promise<unknown> = Promise.resolve();
 
   /** Saves each reading in turn, in the order it was keyed. */
@@ -73,16 +72,12 @@ export class CheckSteelTemperatures {
     const what = `${shortSpotName(reading)}: ${celsius(reading.tenths)}`;
     if (pyrometerId === null || !this.session.mayUse(pyrometerId, ['sled-pyrometer'], reading.takenAt)) {
       this.notice.refuse(`${what}. Choose a calibrated sled pyrometer issued to you first. Key the reading again.`);
-      this.round.update((n) => n + 1);
       return;
     }
     const saved = await this.notice.run(
       () => saveSteelReading(this.session.store, { competitionId: this.session.competitionId(), checkId: this.session.checkId(), reading, instrumentId: pyrometerId }),
       `${what} saved on this device`,
     );
-    if (!saved) {
-      this.notice.refuse(`${what}. ${this.notice.problem()} Key the reading again.`);
-      this.round.update((n) => n + 1);
-    }
+    if (!saved) this.notice.refuse(`${what}. ${this.notice.problem()} Key the reading again.`);
   }
 }

@@ -17,15 +17,18 @@ import { SaveNotice, SaveNoticeView } from './save-notice';
     <rl-check-instrument-picker heading="Scale" section="scale" [choices]="scale.choices()" [chosenId]="scale.chosen()?.id ?? null" (chosen)="scale.choose($event)" />
     @if (session.entry(); as entry) {
       <fieldset class="entry" [disabled]="!session.isOpen() || !scale.chosen()">
-        <rl-weight-step
-          [profile]="session.profile()!"
-          [trackType]="session.profile()!.trackType"
-          [discipline]="entry.discipline"
-          [officialBodyWeights]="session.officialBodyWeights()"
-          [saved]="session.weightValues()"
-          [draftScope]="draftScope()"
-          (weighed)="save($event)"
-        />
+        <!-- Afresh after a refused or failed save, so no unsaved value stays on screen. -->
+        @for (key of [notice.round()]; track key) {
+          <rl-weight-step
+            [profile]="session.profile()!"
+            [trackType]="session.profile()!.trackType"
+            [discipline]="entry.discipline"
+            [officialBodyWeights]="session.officialBodyWeights()"
+            [saved]="session.weightValues()"
+            [draftScope]="draftScope()"
+            (weighed)="save($event)"
+          />
+        }
       </fieldset>
     } @else {
       <p class="notice" role="note"><span aria-hidden="true">?</span> Bib {{ session.check()?.bib }} is not on the start list on this device, so its discipline is not known: weigh it and refer to the technical delegate.</p>
@@ -48,6 +51,6 @@ export class CheckWeight {
       return Promise.resolve(false);
     }
     const m = { competitionId: this.session.competitionId(), checkId: this.session.checkId(), what: weighed, place: reading, value: { tenths, unit: 'kilogram' as const }, instrumentId: scaleId, takenAt };
-    return this.notice.run(() => saveMeasurement(this.session.store, this.session.weights(), m), `${formatTenths(tenths, 'kilogram')} saved on this device`);
+    return this.notice.run(() => saveMeasurement(this.session.store, m), `${formatTenths(tenths, 'kilogram')} saved on this device`);
   }
 }
