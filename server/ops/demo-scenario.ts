@@ -1,4 +1,4 @@
-import { eq, inArray } from 'drizzle-orm';
+import { eq, inArray, sql } from 'drizzle-orm';
 import type { InstrumentPurpose } from '../../shared/competition/instruments';
 import type { StartListEntry } from '../../shared/competition/start-list';
 import { acceptDemoValues, withProfileValue } from '../../shared/rules/profile-values';
@@ -191,9 +191,15 @@ async function seedDemoStartListsAndInstruments(db: Database): Promise<void> {
   const userIdOf = new Map(userRows.map((u) => [u.email, u.id]));
   for (const { competition } of demoOpenings) {
     const entries = demoStartLists[competition.id] ?? [];
-    // Any clash (bib, start order) means the row is there already: seeding again changes nothing.
+    // A row there already keeps its place; a demo database from before body weights were kept gets them.
     if (entries.length > 0) {
-      await db.insert(startListEntries).values(entries.map((entry) => ({ competitionId: competition.id, ...entry }))).onConflictDoNothing();
+      await db
+        .insert(startListEntries)
+        .values(entries.map((entry) => ({ competitionId: competition.id, ...entry })))
+        .onConflictDoUpdate({
+          target: [startListEntries.competitionId, startListEntries.bib],
+          set: { officialBodyWeight: sql`excluded.official_body_weight`, secondOfficialBodyWeight: sql`excluded.second_official_body_weight` },
+        });
     }
     const kit = demoInstruments[competition.id] ?? [];
     if (kit.length === 0) continue;
@@ -209,6 +215,10 @@ async function seedDemoStartListsAndInstruments(db: Database): Promise<void> {
           certificateSha256: null,
         })),
       )
-      .onConflictDoNothing();
+      // An older demo database gets the kit as the demo now issues it (who holds what, certified masses).
+      .onConflictDoUpdate({
+        target: instruments.id,
+        set: { assignedTo: sql`excluded.assigned_to`, nominalMass: sql`excluded.nominal_mass` },
+      });
   }
 }

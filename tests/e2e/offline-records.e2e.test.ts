@@ -64,6 +64,8 @@ describe('records made with no signal reach PostgreSQL', () => {
     await page.locator('input[name=photo]').setInputFiles({ name: 'burr.png', mimeType: 'image/png', buffer: bandedPng(2400, 1800) });
     await page.getByRole('status').filter({ hasText: 'Photo saved on this device' }).waitFor();
     await page.getByRole('button', { name: '✓ Cleared to start' }).click();
+    // The sled's steps are not done here, so clearing it is asked first.
+    await page.getByRole('button', { name: 'Yes, cleared to start' }).click();
     await page.getByRole('status').filter({ hasText: 'Cleared to start: saved on this device' }).waitFor();
 
     await page.reload();

@@ -102,6 +102,12 @@ describe('GET /api/competitions/:id/field-data', () => {
     expect(body.profile?.profile.trackType).toBe('artificial');
     expect(body.profile?.frozenAt).toBe('2027-02-06T07:00:00.000Z');
     expect(body.startList).toEqual(demoStartLists[glimmerdale.id]);
+    // The junior race's start list carries the (invented) official body weights the upper bound is worked out from.
+    for (const entry of body.startList) {
+      expect(entry.officialBodyWeight).toBeGreaterThan(0);
+      expect(entry.secondOfficialBodyWeight !== null).toBe(entry.discipline === 'doubles');
+    }
+    expect(body.instruments.filter((i) => i.purpose === 'control-weight').map((i) => i.nominalMass)).toEqual([200, 200, 200, 200, 200]);
     expect(body.startList.map((e) => e.athlete)).not.toContain(demoStartLists[frostbarrow.id]![0]!.athlete);
     // trade practice, no published source: at least five control weights where an artificial-track scale stands
     expect(body.instruments.filter((i) => i.purpose === 'control-weight')).toHaveLength(5);
@@ -143,13 +149,19 @@ describe('the start list and instruments in the database', () => {
     await database.db.insert(startListEntries).values(singles);
     await expect(database.db.insert(startListEntries).values({ ...singles, startOrder: 41 })).rejects.toThrow();
     await expect(database.db.insert(startListEntries).values({ ...singles, bib: 41 })).rejects.toThrow();
+    // Body weights are tenths of a kg above 0; only a doubles sled has a second one.
+    await expect(database.db.insert(startListEntries).values({ ...singles, bib: 42, startOrder: 42, officialBodyWeight: 0 })).rejects.toThrow();
+    await expect(database.db.insert(startListEntries).values({ ...singles, bib: 43, startOrder: 43, secondOfficialBodyWeight: 700 })).rejects.toThrow();
     await database.db.delete(startListEntries).where(eq(startListEntries.competitionId, planned.id));
   });
 
-  it('when an instrument has an unknown purpose or a certificate that is not a SHA-256, then the database refuses it', async () => {
+  it('when an instrument has an unknown purpose, a certificate that is not a SHA-256 or a certified mass it cannot have, then the database refuses it', async () => {
     const base = { id: '0193a5c0-0001-7000-8000-0000000009f1', competitionId: planned.id, label: 'THM-01', calibratedUntil: '2027-06-01' };
     await expect(database.db.insert(instruments).values({ ...base, purpose: 'thermometer' as 'scale' })).rejects.toThrow();
     await expect(database.db.insert(instruments).values({ ...base, purpose: 'scale', certificateSha256: 'not-a-hash' })).rejects.toThrow();
+    // Only a control weight has a certified mass, and it is above 0.
+    await expect(database.db.insert(instruments).values({ ...base, purpose: 'scale', nominalMass: 200 })).rejects.toThrow();
+    await expect(database.db.insert(instruments).values({ ...base, purpose: 'control-weight', nominalMass: 0 })).rejects.toThrow();
     expect(await database.db.select().from(instruments).where(eq(instruments.competitionId, planned.id))).toEqual([]);
   });
 });
