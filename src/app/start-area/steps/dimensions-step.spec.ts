@@ -1,10 +1,10 @@
-import { Component, provideZonelessChangeDetection, signal } from '@angular/core';
-import { TestBed } from '@angular/core/testing';
+import { Component, signal } from '@angular/core';
 import { acceptDemoValues } from '../../../../shared/rules/profile-values';
 import type { RulesProfile } from '../../../../shared/rules/rules-profile';
 import { shippedProfile } from '../../../../shared/rules/shipped-profiles';
 import type { SavedDimensions } from './dimension-readings';
 import { DimensionsStep, type MeasuredDimension, type SeenDimension } from './dimensions-step';
+import { mountStep, squash } from './testing/mount-step';
 
 // Demo values, invented for the demo race, not rule values: handguard height 120.0–200.0 mm,
 // handguard width 300.0–450.0 mm, steel angle 0.0–20.0°.
@@ -34,16 +34,7 @@ class Host {
 }
 
 function setUp(change: (host: Host) => void = () => {}) {
-  TestBed.configureTestingModule({ providers: [provideZonelessChangeDetection()] });
-  const fixture = TestBed.createComponent(Host);
-  change(fixture.componentInstance);
-  fixture.detectChanges();
-  const element = fixture.nativeElement as HTMLElement;
-  const squash = (text: string | null | undefined) => text?.replace(/\s+/g, ' ').trim() ?? '';
-  const text = (selector: string) => {
-    fixture.detectChanges();
-    return squash(element.querySelector(selector)?.textContent);
-  };
+  const { fixture, element, text } = mountStep(Host, change);
   const all = <T extends Element = HTMLElement>(selector: string) => {
     fixture.detectChanges();
     return [...element.querySelectorAll<T & Element>(selector)];

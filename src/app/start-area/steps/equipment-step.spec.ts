@@ -1,8 +1,8 @@
-import { Component, provideZonelessChangeDetection, signal } from '@angular/core';
-import { TestBed } from '@angular/core/testing';
+import { Component, signal } from '@angular/core';
 import type { RulesProfile } from '../../../../shared/rules/rules-profile';
 import { shippedProfile } from '../../../../shared/rules/shipped-profiles';
 import { EquipmentStep, type EquipmentAnswers } from './equipment-step';
+import { mountStep, squash } from './testing/mount-step';
 
 // Equipment lists of the shipped profiles: trade practice, no published source.
 const natural = shippedProfile('natural', 'international');
@@ -36,16 +36,7 @@ class Host {
 }
 
 function setUp(change: (host: Host) => void = () => {}) {
-  TestBed.configureTestingModule({ providers: [provideZonelessChangeDetection()] });
-  const fixture = TestBed.createComponent(Host);
-  change(fixture.componentInstance);
-  fixture.detectChanges();
-  const element = fixture.nativeElement as HTMLElement;
-  const squash = (text: string | null | undefined) => text?.replace(/\s+/g, ' ').trim() ?? '';
-  const text = (selector: string) => {
-    fixture.detectChanges();
-    return squash(element.querySelector(selector)?.textContent);
-  };
+  const { fixture, element, text } = mountStep(Host, change);
   const button = (item: string, answer: 'present' | 'missing') => {
     fixture.detectChanges();
     const found = element.querySelector<HTMLButtonElement>(`[data-item="${item}"] button[data-answer="${answer}"]`);

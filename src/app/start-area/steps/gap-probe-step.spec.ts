@@ -1,11 +1,11 @@
-import { Component, provideZonelessChangeDetection, signal } from '@angular/core';
-import { TestBed } from '@angular/core/testing';
+import { Component, signal } from '@angular/core';
 import type { GapProbeResult } from '../../../../shared/rules/gap-probe';
 import { acceptDemoValues } from '../../../../shared/rules/profile-values';
 import type { RulesProfile } from '../../../../shared/rules/rules-profile';
 import { shippedProfile } from '../../../../shared/rules/shipped-profiles';
 import { profileWith } from '../../../../shared/rules/test-profiles';
 import { GapProbeStep } from './gap-probe-step';
+import { mountStep } from './testing/mount-step';
 
 // trade practice, no published source: a 0.5 mm feeler, sled reclined, nobody touching the steels; up to half
 // the steel width → tell the delegate and extra finish inspections; right across → violation on the spot.
@@ -30,15 +30,7 @@ class Host {
 }
 
 function setUp(change: (host: Host) => void = () => {}) {
-  TestBed.configureTestingModule({ providers: [provideZonelessChangeDetection()] });
-  const fixture = TestBed.createComponent(Host);
-  change(fixture.componentInstance);
-  fixture.detectChanges();
-  const element = fixture.nativeElement as HTMLElement;
-  const text = (selector: string) => {
-    fixture.detectChanges();
-    return element.querySelector(selector)?.textContent?.replace(/\s+/g, ' ').trim() ?? '';
-  };
+  const { fixture, element, text } = mountStep(Host, change);
   const button = (result: GapProbeResult) => {
     fixture.detectChanges();
     const found = element.querySelector<HTMLButtonElement>(`button[data-result="${result}"]`);

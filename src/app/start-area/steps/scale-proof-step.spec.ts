@@ -1,10 +1,10 @@
-import { Component, provideZonelessChangeDetection, signal } from '@angular/core';
-import { TestBed } from '@angular/core/testing';
+import { Component, signal } from '@angular/core';
 import { acceptDemoValues } from '../../../../shared/rules/profile-values';
 import type { RulesProfile } from '../../../../shared/rules/rules-profile';
 import { shippedProfile } from '../../../../shared/rules/shipped-profiles';
 import type { ControlWeight, ScaleProofEntry } from './scale-proof';
 import { ScaleProofStep, type ScaleProved } from './scale-proof-step';
+import { mountStep } from './testing/mount-step';
 
 // Natural track: one calibrated weight of at least 1 kg, a scale reading in 100 g steps.
 // secondary published: national luge rules (Russian Ministry of Sport), items 2.1–2.2
@@ -44,19 +44,7 @@ class Host {
 }
 
 function setUp(change: (host: Host) => void = () => {}) {
-  TestBed.configureTestingModule({ providers: [provideZonelessChangeDetection()] });
-  const fixture = TestBed.createComponent(Host);
-  change(fixture.componentInstance);
-  fixture.detectChanges();
-  const element = fixture.nativeElement as HTMLElement;
-  const text = (selector: string) => {
-    fixture.detectChanges();
-    return element.querySelector(selector)?.textContent?.replace(/\s+/g, ' ').trim() ?? '';
-  };
-  const has = (selector: string) => {
-    fixture.detectChanges();
-    return element.querySelector(selector) !== null;
-  };
+  const { fixture, element, text, has } = mountStep(Host, change);
   const weightButton = (label: string) => {
     fixture.detectChanges();
     const found = element.querySelector<HTMLButtonElement>(`button[data-weight="${label}"]`);

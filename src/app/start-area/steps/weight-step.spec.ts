@@ -1,11 +1,11 @@
-import { Component, provideZonelessChangeDetection, signal } from '@angular/core';
-import { TestBed } from '@angular/core/testing';
+import { Component, signal } from '@angular/core';
 import { measurement, type Measurement } from '../../../../shared/rules/measurement';
 import type { Discipline, RulesProfile } from '../../../../shared/rules/rules-profile';
 import { shippedProfile } from '../../../../shared/rules/shipped-profiles';
 import { profileWith } from '../../../../shared/rules/test-profiles';
 import { unknownBodyWeightWords, type SavedWeights } from './weight-judgement';
 import { WeightStep, type WeighedReading } from './weight-step';
+import { mountStep } from './testing/mount-step';
 
 // The natural-track sled maximum ships unset: 25.0 kg is this spec's own assumption, not a rule value.
 const natural = profileWith('natural', 'international', { 'weights.sledMax.singles-men': 250 });
@@ -42,19 +42,7 @@ class Host {
 }
 
 function setUp(change: (host: Host) => void = () => {}) {
-  TestBed.configureTestingModule({ providers: [provideZonelessChangeDetection()] });
-  const fixture = TestBed.createComponent(Host);
-  change(fixture.componentInstance);
-  fixture.detectChanges();
-  const element = fixture.nativeElement as HTMLElement;
-  const text = (selector: string) => {
-    fixture.detectChanges();
-    return element.querySelector(selector)?.textContent?.replace(/\s+/g, ' ').trim() ?? '';
-  };
-  const has = (selector: string) => {
-    fixture.detectChanges();
-    return element.querySelector(selector) !== null;
-  };
+  const { fixture, element, text, has } = mountStep(Host, change);
   /** Presses keys on the keypad of one reading, e.g. keys('sled', '2', '5', 'Save'). */
   const keys = (reading: string, ...labels: string[]) => {
     for (const label of labels) {
