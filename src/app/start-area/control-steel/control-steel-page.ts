@@ -265,13 +265,14 @@ export class ControlSteelPage {
     this.entryProblem.set(null);
   }
 
-  protected keepIce(tenths: number): void {
-    this.ice.set(tenths);
-    this.entryProblem.set(null);
-  }
+  /** Ice and air, each on its own keypad, kept for the next reading. */
+  protected readonly weatherPads = computed(() => [
+    { what: 'ice' as const, label: 'Ice', kept: this.ice() },
+    { what: 'air' as const, label: 'Air', kept: this.air() },
+  ]);
 
-  protected keepAir(tenths: number): void {
-    this.air.set(tenths);
+  protected keepWeather(what: 'ice' | 'air', tenths: number): void {
+    (what === 'ice' ? this.ice : this.air).set(tenths);
     this.entryProblem.set(null);
   }
 
