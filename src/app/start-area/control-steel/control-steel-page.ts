@@ -1,4 +1,4 @@
-import { ChangeDetectionStrategy, Component, DestroyRef, ElementRef, computed, effect, inject, input, signal, untracked, viewChild } from '@angular/core';
+import { ChangeDetectionStrategy, Component, DestroyRef, ElementRef, computed, effect, inject, input, linkedSignal, signal, untracked, viewChild } from '@angular/core';
 import { toObservable, toSignal } from '@angular/core/rxjs-interop';
 import { MatButtonModule } from '@angular/material/button';
 import { MatFormFieldModule } from '@angular/material/form-field';
@@ -18,6 +18,7 @@ import { OfficialNames } from '../official-names';
 import { clockTime } from './clock-time';
 import { controlLog, currentReadings, type ControlLogEntry } from './control-log';
 import { CONTROL_STEEL_CLOCK } from './control-steel-clock';
+import { forgetWeather, keepWeather, readKeptWeather } from './kept-weather';
 import { instrumentProblem, keepInstrument, keepRules, readKeptInstrument, readKeptRules } from './control-steel-memory';
 import { ControlSteelReminder, type ReminderMoment } from './control-steel-reminder';
 import { countdownWords, type CountdownWords } from './countdown-words';
@@ -166,9 +167,10 @@ export class ControlSteelPage {
   );
 
   protected readonly instrument = signal(readKeptInstrument());
-  /** Ice and air kept for the next reading (whole tenths of °C), when the rules ask for them. */
-  protected readonly ice = signal<number | null>(null);
-  protected readonly air = signal<number | null>(null);
+  /** Ice and air kept for the next reading (whole tenths of °C), when the rules ask for them; kept on the device too. */
+  private readonly keptWeather = linkedSignal(() => readKeptWeather(this.id(), this.clock()));
+  protected readonly ice = computed(() => this.keptWeather().ice);
+  protected readonly air = computed(() => this.keptWeather().air);
   /** A value whose save failed: the keypad comes back with it, so it need not be keyed again. */
   protected readonly unsavedTenths = signal<number | null>(null);
   protected readonly isSaving = signal(false);
@@ -272,7 +274,9 @@ export class ControlSteelPage {
   ]);
 
   protected keepWeather(what: 'ice' | 'air', tenths: number): void {
-    (what === 'ice' ? this.ice : this.air).set(tenths);
+    const weather = { ...this.keptWeather(), [what]: tenths };
+    this.keptWeather.set(weather);
+    keepWeather(this.id(), weather, this.clock());
     this.entryProblem.set(null);
   }
 
@@ -306,8 +310,8 @@ export class ControlSteelPage {
         air: air === null ? null : { tenths: air, unit: 'celsius' },
       });
       this.unsavedTenths.set(null);
-      this.ice.set(null);
-      this.air.set(null);
+      this.keptWeather.set({ ice: null, air: null });
+      forgetWeather(this.id());
       const weather = ice !== null && air !== null ? ` (ice ${formatTenths(ice, 'celsius')}, air ${formatTenths(air, 'celsius')})` : '';
       this.savedMessage.set(`✓ Saved on this device ${clockTime(this.clock(), { seconds: true })}: ${formatTenths(tenths, 'celsius')}${weather}.`);
     } catch (error) {
