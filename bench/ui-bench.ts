@@ -159,7 +159,7 @@ async function measureKeypad(baseUrl: string, profileDir: string): Promise<Keypa
     // With signal once, so the competition's rules reach the device; then none, as at the start house.
     await page.goto(`${baseUrl}/competitions/${demoOpenCompetitionId}/start/control-steel`);
     await page.locator('[data-section="countdown"] [data-state]').waitFor();
-    await page.locator('input[name=instrument]').fill('PYRO-B1');
+    await page.locator('[data-section="control-pyrometer"] button[data-instrument="PYR-01"]').click();
     await context.setOffline(true);
 
     for (let n = 0; n < warmUpReadings + readings; n += 1) {

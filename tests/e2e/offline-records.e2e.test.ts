@@ -49,12 +49,15 @@ describe('records made with no signal reach PostgreSQL', () => {
     // One visit with signal brings the competition's rules (the reading interval) onto the device.
     await page.goto(startArea('control-steel'));
     await page.locator('[data-section="countdown"] [data-state]').waitFor();
+    // ...and its instruments, so the control steel pyrometer can be chosen with no signal.
+    await page.locator('[data-section="control-pyrometer"] button[data-instrument="PYR-01"]').waitFor();
 
     // On the mountain: no signal from here on.
     await context.setOffline(true);
     await page.reload();
     await page.locator('[data-section="countdown"] [data-state="no-reading-yet"]').waitFor();
-    await page.locator('input[name=instrument]').fill('PYRO-C1');
+    // The demo issues control steel pyrometer PYR-01 to this official.
+    await page.locator('[data-section="control-pyrometer"] button[data-instrument="PYR-01"]').click();
     await keyIn(page, '-4.9', controlReadingKeypad(page));
     await controlReadingKeypad(page).getByRole('button', { name: 'Save', exact: true }).click();
     await page.getByRole('status').filter({ hasText: 'Saved on this device' }).waitFor();
@@ -82,7 +85,7 @@ describe('records made with no signal reach PostgreSQL', () => {
     await expect.poll(() => page.locator('[data-item="photos"]').count(), { timeout: 30_000 }).toBe(0);
 
     const [reading] = await rowsInPostgres('control-reading');
-    expect(reading?.fields).toMatchObject({ reading: { tenths: -49, unit: 'celsius' }, instrumentId: 'PYRO-C1' });
+    expect(reading?.fields).toMatchObject({ reading: { tenths: -49, unit: 'celsius' }, instrumentId: '0193a5c0-0001-7000-8000-000000000101' });
     const [check] = await rowsInPostgres('start-check');
     expect(check?.fields).toMatchObject({ run: 1, bib: 7, status: 'cleared' });
     const photos = await rowsInPostgres('photo');

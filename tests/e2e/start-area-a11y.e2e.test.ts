@@ -141,7 +141,7 @@ const screens: Screen[] = [
       await page.goto(startArea('control-steel'));
       const keypad = controlReadingKeypad(page);
       await keypad.waitFor();
-      await page.locator('input[name=instrument]').fill('PYRO-A1');
+      await page.locator('[data-section="control-pyrometer"] button[data-instrument="PYR-01"]').click();
       await keyIn(page, '-4.9', keypad);
       await keypad.getByRole('button', { name: 'Save', exact: true }).click();
       await page.getByRole('status').filter({ hasText: 'Saved on this device' }).waitFor();

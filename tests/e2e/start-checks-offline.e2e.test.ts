@@ -524,7 +524,7 @@ describe.each([frostbarrow, glimmerdale])('a full start check with no signal on 
 
     await p.goto(startArea(track, 'control-steel'));
     await p.locator('[data-section="countdown"] [data-state="no-reading-yet"]').waitFor();
-    await p.locator('input[name=instrument]').fill(track.control.pyrometer);
+    await chooseInstrument(p, 'control-pyrometer', track.control.pyrometer);
     if (track.control.ice && track.control.air) {
       await keyIn(p.locator('[data-section="ice"] rl-glove-keypad'), track.control.ice, 'Keep');
       await eventually(() => textOf(p.locator('[data-section="ice-kept"]'))).toBe(`✓ Ice kept for this reading: ${celsius(track.control.ice)}`);

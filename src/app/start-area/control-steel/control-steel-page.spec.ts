@@ -12,6 +12,7 @@ import { firstOfficial } from '../../auth/testing/auth-fixtures';
 import { createRecordWriter } from '../../core/device-store/record-writer';
 import { StorageFullError } from '../../core/device-store/store-errors';
 import { FakeSyncServer } from '../../core/device-store/testing/fake-sync-server';
+import { fieldDataFor } from '../../core/field-data/testing/field-data-fixture';
 import { competitionId, openTestDevice, otherOfficial } from '../../core/device-store/testing/test-device';
 import type { DeviceStore } from '../../core/sync/device-store';
 import { FakeBrowserStorage, provideTestDeviceStore, startSignedIn, until } from '../../core/sync/testing/test-device-store';
@@ -165,6 +166,37 @@ describe('ControlSteelPage', () => {
     expect(page.text('[data-section="entry"] output')).toBe('No value yet');
     expect((page.element.querySelector('input[name="instrument"]') as HTMLInputElement).value).toBe('P-7');
     expect(JSON.parse(localStorage.getItem('rimelog.control-steel.instrument') ?? 'null')).toBe('P-7');
+  });
+
+  it('when the competition’s instruments are on the device, then only a calibrated control steel pyrometer issued to the official can be chosen, and the reading names it', async () => {
+    const { store } = await setUp();
+    // The fixture issues PYR-01 (control steel pyrometer) and PYR-02 (sled pyrometer) to this official, calibrated until 2027-07-08.
+    const data = fieldDataFor(competitionId);
+    expect((await store.keepFieldData({ ...data, instruments: [...data.instruments, { ...data.instruments[0]!, id: '0190a7e2-0001-7000-8000-000000000109', label: 'PYR-09', calibratedUntil: '2027-01-13' }] })).kept).toBe(true);
+    const page = await openPage('arrive');
+    await until(() => page.element.querySelector('[data-section="control-pyrometer"]') !== null, 'the pyrometers are listed');
+
+    expect(page.element.querySelector('input[name="instrument"]')).toBeNull();
+    const refused = [...page.element.querySelectorAll('[data-refused]')].map((li) => li.textContent?.replace(/\s+/g, ' ').trim());
+    expect(refused).toEqual([
+      '✕ PYR-02 is a sled pyrometer; the control steel is read with a control steel pyrometer.',
+      '✕ PYR-09 was calibrated until 2027-01-13; use a calibrated instrument.',
+    ]);
+
+    // Nothing chosen yet: the reading is refused in words and stays on the keypad.
+    page.keys('[data-section="entry"]', '6', '.', '2', '±', 'Save');
+    await until(() => page.text('[data-section="entry-problem"]') !== '', 'the refusal shows');
+    expect(page.text('[data-section="entry-problem"]')).toBe('⚠ Choose a calibrated control steel pyrometer issued to you first.');
+    expect(page.text('[data-section="entry"] output')).toContain('−6.2');
+    expect(await storedReadings(store)).toEqual([]);
+
+    page.press('○ PYR-01 · calibrated until 2027-07-08');
+    page.keys('[data-section="entry"]', 'Save');
+    await until(() => page.text('[data-section="saved"]') !== '', 'the save is confirmed');
+    const [saved] = await storedReadings(store);
+    expect(saved?.fields).toMatchObject({ reading: { tenths: -62, unit: 'celsius' }, instrumentId: data.instruments[0]!.id });
+    await until(() => page.entries().length === 1, 'the log shows the reading');
+    expect(page.entries()[0]).toContain('First Official · pyrometer PYR-01');
   });
 
   it('when the server cannot be reached, then a saved reading is marked "only on this device" until a sync confirms it', async () => {

@@ -11,13 +11,16 @@ import { RulesInputError } from '../../../../shared/rules/rules-error';
 import type { RecordKind } from '../../../../shared/sync/record-kinds';
 import { AuthStore } from '../../auth/auth-store';
 import type { LocalRecord } from '../../core/device-store/device-db';
+import { FieldDataStore } from '../../core/field-data/field-data-store';
 import { DeviceStore } from '../../core/sync/device-store';
 import { competitionRulesResource } from '../../rules/rules-api';
 import { GloveKeypad } from '../../ui/glove-keypad/glove-keypad';
 import { OfficialNames } from '../official-names';
 import { clockTime } from './clock-time';
 import { controlLog, currentReadings, type ControlLogEntry } from './control-log';
+import { CheckInstrumentPicker } from '../checks/check-instrument-picker';
 import { CONTROL_STEEL_CLOCK } from './control-steel-clock';
+import { controlPyrometer } from './control-pyrometer';
 import { forgetWeather, keepWeather, readKeptWeather } from './kept-weather';
 import { instrumentProblem, keepInstrument, keepRules, readKeptInstrument, readKeptRules } from './control-steel-memory';
 import { ControlSteelReminder, type ReminderMoment } from './control-steel-reminder';
@@ -52,7 +55,7 @@ type CountdownPanel =
 @Component({
   selector: 'rl-control-steel-page',
   changeDetection: ChangeDetectionStrategy.OnPush,
-  imports: [MatButtonModule, MatFormFieldModule, MatInputModule, RouterLink, GloveKeypad, SignaturePadField, MountingCheck, ReminderSettings],
+  imports: [MatButtonModule, MatFormFieldModule, MatInputModule, RouterLink, CheckInstrumentPicker, GloveKeypad, SignaturePadField, MountingCheck, ReminderSettings],
   templateUrl: './control-steel-page.html',
   styleUrl: './control-steel-page.scss',
 })
@@ -62,6 +65,7 @@ export class ControlSteelPage {
 
   private readonly store = inject(DeviceStore);
   private readonly auth = inject(AuthStore);
+  private readonly fieldDataStore = inject(FieldDataStore);
   protected readonly names = inject(OfficialNames);
   private readonly clock = inject(CONTROL_STEEL_CLOCK);
   protected readonly range = controlReadingRange;
@@ -167,6 +171,9 @@ export class ControlSteelPage {
   );
 
   protected readonly instrument = signal(readKeptInstrument());
+  /** This device's copy of the competition's instruments: undefined while read, null when there is none. */
+  private readonly fieldData = toSignal(toObservable(this.id).pipe(switchMap((id) => this.fieldDataStore.watch(id))), { initialValue: undefined });
+  protected readonly pyrometer = controlPyrometer(this.fieldData, this.auth.activeUserId, this.now);
   /** Ice and air kept for the next reading (whole tenths of °C), when the rules ask for them; kept on the device too. */
   private readonly keptWeather = linkedSignal(() => readKeptWeather(this.id(), this.clock()));
   protected readonly ice = computed(() => this.keptWeather().ice);
@@ -280,17 +287,36 @@ export class ControlSteelPage {
     this.entryProblem.set(null);
   }
 
+  /**
+   * The instrument the reading is taken with: the chosen control steel pyrometer, or, while the competition's
+   * instruments are not on this device, the label typed. Null (with the reason shown) when there is none.
+   */
+  private instrumentFor(tenths: number): string | null {
+    const refuse = (problem: string) => {
+      this.unsavedTenths.set(tenths);
+      this.entryProblem.set(problem);
+      return null;
+    };
+    if (this.pyrometer.choices() !== null) {
+      const chosen = this.pyrometer.chosen();
+      if (chosen === null || !this.pyrometer.mayUse(chosen.id, this.clock())) return refuse('Choose a calibrated control steel pyrometer issued to you first.');
+      return chosen.id;
+    }
+    const problem = instrumentProblem(this.instrument());
+    if (problem) {
+      this.instrumentInput()?.nativeElement.focus();
+      return refuse(problem);
+    }
+    return this.instrument().trim();
+  }
+
   protected async saveReading(tenths: number): Promise<void> {
     if (this.isSaving()) return;
     // A tap: the moment browsers allow the reminder's beep to be prepared.
     this.reminder.prepareSound();
     this.savedMessage.set(null);
-    const problem = instrumentProblem(this.instrument());
-    if (problem) {
-      this.entryProblem.set(problem);
-      this.instrumentInput()?.nativeElement.focus();
-      return;
-    }
+    const instrumentId = this.instrumentFor(tenths);
+    if (instrumentId === null) return;
     const ice = this.asksIceAndAir() ? this.ice() : null;
     const air = this.asksIceAndAir() ? this.air() : null;
     if (this.asksIceAndAir() && (ice === null || air === null)) {
@@ -305,7 +331,7 @@ export class ControlSteelPage {
       await this.store.createRecord('control-reading', this.id(), 'start', {
         reading: { tenths, unit: 'celsius' },
         takenAt: new Date(this.clock()).toISOString(),
-        instrumentId: this.instrument().trim(),
+        instrumentId,
         ice: ice === null ? null : { tenths: ice, unit: 'celsius' },
         air: air === null ? null : { tenths: air, unit: 'celsius' },
       });
