@@ -25,27 +25,7 @@ import type { StepJudgement } from './step-judgement';
       }
     }
   `,
-  styles: `
-    :host {
-      display: contents;
-    }
-    p {
-      margin: 0;
-    }
-    .mark {
-      font-size: 1.3em;
-      line-height: 1;
-    }
-    .notice {
-      display: flex;
-      flex-direction: column;
-      gap: 12px;
-      padding: 12px 16px;
-      border: 3px dashed var(--mat-sys-on-surface);
-      border-radius: 8px;
-      font-weight: 700;
-    }
-  `,
+  styleUrl: './step-judgement-view.scss',
 })
 export class StepJudgementView {
   readonly judgement = input.required<StepJudgement | null>();
