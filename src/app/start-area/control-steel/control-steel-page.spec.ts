@@ -468,8 +468,8 @@ describe('ControlSteelPage', () => {
       expect(await stored(store, 'control-steel-mounting')).toEqual([]);
 
       page.keys('[data-section="mounting-height"]', '7', '0', 'Keep');
-      page.press('Yes', '[data-section="mounting-shade"]');
-      expect(page.element.querySelector('[data-section="mounting-shade"] button[aria-pressed="true"]')?.textContent?.trim()).toBe('● Yes');
+      page.press('✓ Yes', '[data-section="mounting-shade"]');
+      expect(page.element.querySelector('[data-section="mounting-shade"] button[aria-pressed="true"]')?.textContent?.trim()).toBe('✓ Yes');
       page.press('Enter the first start time', '[data-section="mounting"]');
       expect(page.text('[data-section="first-start"] output')).toBe('10:00 today');
       page.press('−5 min', '[data-section="mounted-at"]');
@@ -539,15 +539,15 @@ describe('ControlSteelPage', () => {
 
       expect(page.element.querySelector('[data-section="mounting-height"]')).toBeNull();
       page.keys('[data-section="mounting-length"]', '2', '5', 'Keep');
-      page.press('Yes', '[data-section="mounting-shade"]');
-      page.press('No', '[data-section="mounting-drafts"]');
-      expect(page.element.querySelector('[data-section="mounting-drafts"] button[aria-pressed="true"]')?.textContent?.trim()).toBe('● No');
+      page.press('✓ Yes', '[data-section="mounting-shade"]');
+      page.press('✕ No', '[data-section="mounting-drafts"]');
+      expect(page.element.querySelector('[data-section="mounting-drafts"] button[aria-pressed="true"]')?.textContent?.trim()).toBe('✕ No');
       page.press('Enter the first start time', '[data-section="mounting"]');
 
       // trade practice, no published source: out of drafts, mounted ≥ 4 h before the start
       expect(page.text('[data-section="mounting-verdict"]')).toContain('The control steel is in a draft; mounted 40 min before the first start, less than 240 min.');
       for (let hour = 0; hour < 4; hour++) page.press('−1 h', '[data-section="mounted-at"]');
-      page.press('Yes', '[data-section="mounting-drafts"]');
+      page.press('✓ Yes', '[data-section="mounting-drafts"]');
       expect(page.text('[data-section="mounted-at"] output')).toBe('05:20 today');
       expect(page.text('[data-section="mounting-verdict"]')).toContain('The control steel is mounted as the profile asks.');
       expect(page.text('[data-section="mounting-verdict"]')).toContain('Length: 25.0 cm');

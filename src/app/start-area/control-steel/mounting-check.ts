@@ -3,6 +3,7 @@ import { MatButtonModule } from '@angular/material/button';
 import type { RulesProfile } from '../../../../shared/rules/rules-profile';
 import type { LocalRecord } from '../../core/device-store/device-db';
 import { DeviceStore } from '../../core/sync/device-store';
+import { AnswerPair } from '../../ui/answer-pair/answer-pair';
 import { GloveKeypad } from '../../ui/glove-keypad/glove-keypad';
 import { OfficialNames } from '../official-names';
 import type { StepJudgement } from '../steps/step-judgement';
@@ -45,7 +46,7 @@ interface MountingSummary {
 @Component({
   selector: 'rl-mounting-check',
   changeDetection: ChangeDetectionStrategy.OnPush,
-  imports: [MatButtonModule, GloveKeypad, TimeStepper, VerdictCard],
+  imports: [MatButtonModule, AnswerPair, GloveKeypad, TimeStepper, VerdictCard],
   templateUrl: './mounting-check.html',
   styleUrl: './mounting-check.scss',
 })

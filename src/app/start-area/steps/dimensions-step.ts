@@ -2,6 +2,7 @@ import { ChangeDetectionStrategy, Component, computed, input, output, signal } f
 import { MatButtonModule } from '@angular/material/button';
 import { formatTenths } from '../../../../shared/rules/measurement';
 import type { DimensionRule, RulesProfile } from '../../../../shared/rules/rules-profile';
+import { AnswerPair, type AnswerSide } from '../../ui/answer-pair/answer-pair';
 import { GloveKeypad } from '../../ui/glove-keypad/glove-keypad';
 import {
   allowedRangeText,
@@ -68,7 +69,7 @@ interface RuleBlock {
 @Component({
   selector: 'rl-dimensions-step',
   changeDetection: ChangeDetectionStrategy.OnPush,
-  imports: [MatButtonModule, GloveKeypad, StepJudgementView],
+  imports: [MatButtonModule, AnswerPair, GloveKeypad, StepJudgementView],
   templateUrl: './dimensions-step.html',
   styleUrl: './dimensions-step.scss',
   host: { class: 'dimensions-step' },
@@ -153,8 +154,10 @@ export class DimensionsStep {
     this.lastEntered.set(`${pad.label}: ${formatTenths(tenths, pad.unit)} entered.${next ? ` Next: ${lowerFirst(next.label)}.` : ''}`);
   }
 
-  protected answer(rule: DimensionRule, acceptable: boolean, current: boolean | undefined): void {
-    if (current === acceptable) return;
+  protected readonly looksRight: AnswerSide = { label: 'Looks right', mark: '✓', name: 'looks-right' };
+  protected readonly looksWrong: AnswerSide = { label: 'Does not look right', mark: '✕', name: 'does-not-look-right' };
+
+  protected answer(rule: DimensionRule, acceptable: boolean): void {
     this.entered.update((entered) => ({ ...entered, byEye: { ...entered.byEye, [rule.kind]: acceptable } }));
     this.seen.emit({ kind: rule.kind, acceptable });
     this.lastEntered.set(`${rule.label}: ${acceptable ? 'looks right' : 'does not look right'}.`);

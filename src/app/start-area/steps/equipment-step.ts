@@ -1,8 +1,8 @@
 import { ChangeDetectionStrategy, Component, computed, input, linkedSignal, output } from '@angular/core';
-import { MatButtonModule } from '@angular/material/button';
 import { judgeEquipment } from '../../../../shared/rules/equipment';
 import { RulesInputError } from '../../../../shared/rules/rules-error';
 import type { RulesProfile } from '../../../../shared/rules/rules-profile';
+import { AnswerPair, type AnswerSide } from '../../ui/answer-pair/answer-pair';
 import { VerdictCard } from '../verdict/verdict-card';
 import { bibNotConfirmedLine } from './equipment-judgement';
 
@@ -31,7 +31,7 @@ export { bibNotConfirmedLine };
 @Component({
   selector: 'rl-equipment-step',
   changeDetection: ChangeDetectionStrategy.OnPush,
-  imports: [MatButtonModule, VerdictCard],
+  imports: [AnswerPair, VerdictCard],
   templateUrl: './equipment-step.html',
   styleUrl: './equipment-step.scss',
   host: { class: 'equipment-step' },
@@ -76,6 +76,8 @@ export class EquipmentStep {
 
   protected readonly bibMissing = computed(() => this.bibAnswer() === false);
   protected readonly bibNotConfirmedLine = bibNotConfirmedLine;
+  protected readonly presentAnswer: AnswerSide = { label: 'Present', mark: '✓', name: 'present' };
+  protected readonly missingAnswer: AnswerSide = { label: 'Missing', mark: '✕', name: 'missing' };
 
   protected answerWords(answer: boolean | undefined): string {
     if (answer === undefined) return 'Not answered yet';
@@ -83,7 +85,6 @@ export class EquipmentStep {
   }
 
   protected mark(row: Row, isPresent: boolean): void {
-    if (row.answer === isPresent) return;
     if (row.key === bibKey) {
       this.bibAnswer.set(isPresent);
     } else {
